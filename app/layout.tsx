@@ -1,0 +1,34 @@
+import type { Metadata, Viewport } from "next";
+import localFont from "next/font/local";
+import "./globals.css";
+
+// Barlow ships with the app: no font is fetched from the network.
+const barlow = localFont({
+  src: [
+    { path: "../fonts/barlow-latin-400-normal.woff2", weight: "400", style: "normal" },
+    { path: "../fonts/barlow-latin-500-normal.woff2", weight: "500", style: "normal" },
+    { path: "../fonts/barlow-latin-600-normal.woff2", weight: "600", style: "normal" },
+    { path: "../fonts/barlow-latin-700-normal.woff2", weight: "700", style: "normal" },
+  ],
+  variable: "--font-barlow",
+  display: "swap",
+});
+
+export const metadata: Metadata = {
+  title: { default: "Airtally", template: "%s · Airtally" },
+  description: "Airflow commissioning: traverses, density-corrected flows, continuity and signed closeout reports.",
+};
+
+export const viewport: Viewport = {
+  width: "device-width",
+  initialScale: 1,
+  themeColor: "#111a22",
+};
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en" className={barlow.variable}>
+      <body>{children}</body>
+    </html>
+  );
+}

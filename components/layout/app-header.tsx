@@ -1,0 +1,28 @@
+import Link from "next/link";
+import type { SessionUser } from "@/db/queries/users";
+import { SignOutButton } from "./sign-out-button";
+import { Wordmark } from "./wordmark";
+
+export function AppHeader({ user }: { user: SessionUser }) {
+  return (
+    <header className="bg-ink text-white">
+      <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-3 px-gutter py-2">
+        <Link href="/projects" className="flex min-h-touch items-center" aria-label="Airtally: your projects">
+          <Wordmark />
+        </Link>
+        <nav aria-label="Main" className="flex items-center gap-1">
+          <Link href="/projects" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
+            Projects
+          </Link>
+        </nav>
+        <div className="flex items-center gap-2">
+          <span className="text-sm text-paper-sunk">
+            {user.name}
+            {user.isAdmin && <span className="ml-2 rounded-full border border-paper-sunk px-2 py-0.5 text-xs">Site administrator</span>}
+          </span>
+          <SignOutButton />
+        </div>
+      </div>
+    </header>
+  );
+}

@@ -1,0 +1,17 @@
+export function Card({ title, children, actions, className = "" }: { title?: React.ReactNode; children: React.ReactNode; actions?: React.ReactNode; className?: string }) {
+  return (
+    <section className={`rounded-card border border-line bg-paper-raised p-gutter shadow-sm ${className}`}>
+      {(title || actions) && (
+        <header className="mb-3 flex flex-wrap items-center justify-between gap-3">
+          {title && <h2>{title}</h2>}
+          {actions}
+        </header>
+      )}
+      {children}
+    </section>
+  );
+}
+
+export function EmptyState({ children }: { children: React.ReactNode }) {
+  return <p className="rounded-card border border-dashed border-line-strong bg-paper p-4 text-ink-soft">{children}</p>;
+}

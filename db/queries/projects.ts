@@ -1,0 +1,66 @@
+import "server-only";
+import { and, asc, eq, sql } from "drizzle-orm";
+import { getDb } from "../client";
+import { airSystems, ductSections, projectMembers, projects, traverses, type MemberRole, type Project } from "../schema";
+
+export interface ProjectAccess {
+  project: Project;
+  /** The user's role in the project; null for a site administrator who is not a member. */
+  role: MemberRole | null;
+}
+
+export async function getProjectAccess({ userId, projectId }: { userId: string; projectId: string }): Promise<ProjectAccess | null> {
+  if (!isUuid(projectId)) return null;
+  const db = await getDb();
+  const [row] = await db
+    .select({ project: projects, role: projectMembers.role })
+    .from(projects)
+    .leftJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId)))
+    .where(eq(projects.id, projectId));
+  return row ?? null;
+}
+
+export interface ProjectSummary {
+  id: string;
+  name: string;
+  siteName: string;
+  unitSystem: "IP" | "SI";
+  role: MemberRole | null;
+  systemCount: number;
+  sectionCount: number;
+  /** Sections whose latest traverse has been approved. */
+  approvedSectionCount: number;
+  submittedTraverseCount: number;
+}
+
+/**
+ * The projects a user belongs to with their role in each; site administrators see every project
+ * (role null where they are not a member).
+ */
+export async function listProjectsForUser({ userId, isAdmin }: { userId: string; isAdmin: boolean }): Promise<ProjectSummary[]> {
+  const db = await getDb();
+  const membership = and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId));
+  const base = db
+    .select({
+      id: projects.id,
+      name: projects.name,
+      siteName: projects.siteName,
+      unitSystem: projects.unitSystem,
+      role: projectMembers.role,
+      systemCount: sql<number>`(select count(*)::int from ${airSystems} where ${airSystems.projectId} = ${projects.id})`,
+      sectionCount: sql<number>`(select count(*)::int from ${ductSections} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id})`,
+      approvedSectionCount: sql<number>`(select count(distinct ${traverses.sectionId})::int from ${traverses} join ${ductSections} on ${ductSections.id} = ${traverses.sectionId} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id} and ${traverses.status} = 'approved')`,
+      submittedTraverseCount: sql<number>`(select count(*)::int from ${traverses} join ${ductSections} on ${ductSections.id} = ${traverses.sectionId} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id} and ${traverses.status} = 'submitted')`,
+    })
+    .from(projects);
+  const rows = isAdmin
+    ? await base.leftJoin(projectMembers, membership).orderBy(asc(projects.name))
+    : await base.innerJoin(projectMembers, membership).orderBy(asc(projects.name));
+  return rows;
+}
+
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+export function isUuid(value: string): boolean {
+  return UUID.test(value);
+}

@@ -1,0 +1,221 @@
+import { eq } from "drizzle-orm";
+import { hashPassword } from "@/lib/auth/password";
+import type { Database } from "./client";
+import * as s from "./schema";
+
+/**
+ * The demo scenario: an invented public library with two air systems, and an invented clinic
+ * that only some demo users belong to. Every name, person and reading here is made up.
+ */
+export const DEMO_PASSWORD = "airtally-demo";
+
+export const DEMO_ACCOUNTS = [
+  { email: "tech@example.test", name: "Tomasz Reyes", role: "technician", isAdmin: false },
+  { email: "cx@example.test", name: "Ines Karlsson", role: "commissioning_agent", isAdmin: false },
+  { email: "engineer@example.test", name: "Dara Okafor", role: "engineer", isAdmin: false },
+  { email: "owner@example.test", name: "Maren Holt", role: "owner", isAdmin: false },
+  { email: "admin@example.test", name: "Sol Whitcombe", role: null, isAdmin: true },
+] as const satisfies readonly { email: string; name: string; role: s.MemberRole | null; isAdmin: boolean }[];
+
+/**
+ * Velocity pressures (Pa) for the supply trunk traverse, 7 lines × 5 points, log-Tchebycheff.
+ * Invented readings shaped like a developed profile with a slight skew toward the far wall.
+ */
+const TRUNK_READINGS_PA = [
+  [7.7, 12.3, 14.1, 11.6, 8.5],
+  [11.4, 17.8, 21.7, 17.5, 12.3],
+  [14.1, 23.0, 25.4, 20.4, 15.3],
+  [16.7, 23.7, 28.3, 25.7, 15.8],
+  [15.6, 22.2, 27.5, 21.3, 15.3],
+  [13.6, 18.8, 23.9, 19.2, 14.1],
+  [9.3, 13.1, 16.3, 13.4, 9.6],
+];
+
+type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
+
+/** Seeds the demo data once; a second call finds the demo accounts and does nothing. */
+export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
+  const existing = await db.select({ id: s.users.id }).from(s.users).where(eq(s.users.email, DEMO_ACCOUNTS[0].email));
+  if (existing.length > 0) return { seeded: false };
+
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  await db.transaction(async (tx) => {
+    const users = await tx
+      .insert(s.users)
+      .values(DEMO_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, passwordHash, isAdmin: a.isAdmin })))
+      .returning();
+    const userId = (email: string) => users.find((u) => u.email === email)!.id;
+
+    const [library] = await tx
+      .insert(s.projects)
+      .values({
+        name: "Wrenfield Library — air balance",
+        siteName: "Wrenfield Community Library",
+        address: "14 Aldous Lane, Wrenfield",
+        altitudeM: 210,
+        unitSystem: "SI",
+      })
+      .returning();
+    const [clinic] = await tx
+      .insert(s.projects)
+      .values({
+        name: "Marlow Quay Clinic — fit-out",
+        siteName: "Marlow Quay Clinic",
+        address: "2 Quayside Row, Marlow Quay",
+        altitudeM: 35,
+        unitSystem: "IP",
+        standardDensityKgM3: 1.2014,
+      })
+      .returning();
+
+    await tx.insert(s.projectMembers).values([
+      ...DEMO_ACCOUNTS.filter((a) => a.role !== null).map((a) => ({
+        projectId: library!.id,
+        userId: userId(a.email),
+        role: a.role!,
+      })),
+      { projectId: clinic!.id, userId: userId("engineer@example.test"), role: "engineer" as const },
+    ]);
+
+    await seedLibrary(tx, library!.id, userId("tech@example.test"));
+    await seedClinic(tx, clinic!.id);
+
+    await tx.insert(s.auditLog).values({
+      userId: userId("admin@example.test"),
+      projectId: library!.id,
+      action: "demo.seeded",
+      entityType: "project",
+      entityId: library!.id,
+      detail: { note: "Invented demo scenario" },
+    });
+  });
+  return { seeded: true };
+}
+
+async function seedLibrary(tx: Tx, projectId: string, technicianId: string) {
+  const [ahu, ef] = await tx
+    .insert(s.airSystems)
+    .values([
+      {
+        projectId,
+        tag: "AHU-1",
+        name: "Reading rooms supply",
+        kind: "supply",
+        designFlowM3S: 4.0,
+        designStaticPa: 750,
+        fanSpeedRpm: 1150,
+        location: "Roof plant room",
+      },
+      {
+        projectId,
+        tag: "EF-1",
+        name: "Washroom and workshop exhaust",
+        kind: "exhaust",
+        designFlowM3S: 0.9,
+        designStaticPa: 250,
+        fanSpeedRpm: 1420,
+        location: "Roof, north parapet",
+      },
+    ])
+    .returning();
+
+  const [trunk] = await tx
+    .insert(s.ductSections)
+    .values({
+      systemId: ahu!.id,
+      tag: "S1",
+      kind: "trunk",
+      shape: "rectangular",
+      widthMm: 1200,
+      heightMm: 600,
+      designFlowM3S: 4.0,
+      straightUpstreamMm: 9000,
+      straightDownstreamMm: 2400,
+      location: "Plant room riser, 1.8 m above floor",
+    })
+    .returning();
+  const branches = await tx
+    .insert(s.ductSections)
+    .values([
+      { systemId: ahu!.id, parentId: trunk!.id, tag: "S1.1", kind: "branch", shape: "round", diameterMm: 630, designFlowM3S: 1.5, straightUpstreamMm: 5200, straightDownstreamMm: 1300, location: "East reading room ceiling" },
+      { systemId: ahu!.id, parentId: trunk!.id, tag: "S1.2", kind: "branch", shape: "rectangular", widthMm: 800, heightMm: 400, designFlowM3S: 1.4, straightUpstreamMm: 4100, straightDownstreamMm: 1200, location: "West reading room ceiling" },
+      { systemId: ahu!.id, parentId: trunk!.id, tag: "S1.3", kind: "branch", shape: "round", diameterMm: 500, designFlowM3S: 1.1, straightUpstreamMm: 3600, straightDownstreamMm: 900, location: "Children's library ceiling" },
+    ])
+    .returning();
+
+  const [exhaustTrunk] = await tx
+    .insert(s.ductSections)
+    .values({ systemId: ef!.id, tag: "X1", kind: "trunk", shape: "round", diameterMm: 450, designFlowM3S: 0.9, straightUpstreamMm: 4000, straightDownstreamMm: 1000, location: "Roof curb" })
+    .returning();
+  const exhaustBranches = await tx
+    .insert(s.ductSections)
+    .values([
+      { systemId: ef!.id, parentId: exhaustTrunk!.id, tag: "X1.1", kind: "branch", shape: "round", diameterMm: 315, designFlowM3S: 0.5, location: "Ground floor washrooms" },
+      { systemId: ef!.id, parentId: exhaustTrunk!.id, tag: "X1.2", kind: "branch", shape: "round", diameterMm: 315, designFlowM3S: 0.4, location: "Workshop and store" },
+    ])
+    .returning();
+
+  const terminal = (sectionId: string, tag: string, kind: "supply" | "exhaust", room: string, designFlowM3S: number, device: string) => ({
+    sectionId,
+    tag,
+    kind,
+    room,
+    designFlowM3S,
+    device,
+  });
+  const [east, west, children] = branches;
+  const [washrooms, workshop] = exhaustBranches;
+  await tx.insert(s.terminals).values([
+    ...[1, 2, 3, 4].map((n) => terminal(east!.id, `SD-10${n}`, "supply", "East reading room", 0.375, "600×600 four-way ceiling diffuser")),
+    ...[1, 2, 3, 4, 5].map((n) => terminal(west!.id, `SD-11${n}`, "supply", "West reading room", 0.28, "Linear slot diffuser, 1.2 m")),
+    ...[1, 2, 3, 4].map((n) => terminal(children!.id, `SD-12${n}`, "supply", "Children's library", 0.275, "Round swirl diffuser, 400 mm")),
+    ...[1, 2, 3, 4].map((n) => terminal(washrooms!.id, `EG-20${n}`, "exhaust", "Ground floor washrooms", 0.125, "Egg-crate exhaust grille 300×300")),
+    ...[1, 2].map((n) => terminal(workshop!.id, `EG-21${n}`, "exhaust", "Workshop and store", 0.2, "Exhaust grille 400×300")),
+  ]);
+
+  const takenAt = new Date("2026-11-24T09:40:00Z");
+  const [traverse] = await tx
+    .insert(s.traverses)
+    .values({
+      sectionId: trunk!.id,
+      method: "log-linear",
+      lines: TRUNK_READINGS_PA.length,
+      pointsPerLine: TRUNK_READINGS_PA[0]!.length,
+      instrument: "Pitot-static tube, 900 mm, with digital micromanometer",
+      instrumentSerial: "MM-30418",
+      probeCoefficient: 1.0,
+      dryBulbC: 14.5,
+      relativeHumidityPct: 48,
+      barometricPa: 98_790,
+      staticPa: 310,
+      portOffsetMm: 25,
+      status: "submitted",
+      notes: "Ports on the top face, 9 m downstream of the coil, 2.4 m upstream of the first take-off.",
+      takenBy: technicianId,
+      takenAt,
+      submittedAt: new Date("2026-11-24T10:05:00Z"),
+    })
+    .returning();
+  await tx.insert(s.readings).values(
+    TRUNK_READINGS_PA.flatMap((line, i) =>
+      line.map((value, j) => ({ traverseId: traverse!.id, line: i + 1, point: j + 1, value, recordedAt: takenAt })),
+    ),
+  );
+}
+
+async function seedClinic(tx: Tx, projectId: string) {
+  const [rtu] = await tx
+    .insert(s.airSystems)
+    .values({ projectId, tag: "RTU-2", name: "Consulting suites supply", kind: "supply", designFlowM3S: 1.2, location: "Roof" })
+    .returning();
+  await tx.insert(s.ductSections).values({
+    systemId: rtu!.id,
+    tag: "C1",
+    kind: "trunk",
+    shape: "rectangular",
+    widthMm: 700,
+    heightMm: 400,
+    designFlowM3S: 1.2,
+    location: "Corridor ceiling, level 1",
+  });
+}

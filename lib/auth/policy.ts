@@ -1,0 +1,53 @@
+import type { MemberRole } from "@/db/schema";
+
+/**
+ * What each role may do in a project: the single source of truth for authorization.
+ * Route handlers and server actions ask `can()`; navigation uses it only to hide links.
+ */
+export const ACTIONS = [
+  "project.view",
+  "traverse.record",
+  "traverse.submit",
+  "traverse.review",
+  "design.view",
+  "design.edit",
+  "deviation.accept",
+  "report.issue",
+  "report.download",
+  "members.manage",
+] as const;
+export type Action = (typeof ACTIONS)[number];
+
+const ALL: readonly MemberRole[] = ["technician", "commissioning_agent", "engineer", "owner"];
+
+export const POLICY: Record<Action, readonly MemberRole[]> = {
+  "project.view": ALL,
+  "traverse.record": ["technician"],
+  "traverse.submit": ["technician"],
+  "traverse.review": ["commissioning_agent"],
+  "design.view": ["technician", "commissioning_agent", "engineer"],
+  "design.edit": ["engineer"],
+  "deviation.accept": ["engineer"],
+  "report.issue": ["commissioning_agent"],
+  "report.download": ALL,
+  "members.manage": [],
+};
+
+/** Site-wide administrators manage every project's people and settings, and may look at everything, but take no readings and sign nothing. */
+const ADMIN_ACTIONS: ReadonlySet<Action> = new Set(["project.view", "design.view", "report.download", "members.manage"]);
+
+export interface Actor {
+  isAdmin: boolean;
+}
+
+export function can(actor: Actor, role: MemberRole | null, action: Action): boolean {
+  if (role !== null && POLICY[action].includes(role)) return true;
+  return actor.isAdmin && ADMIN_ACTIONS.has(action);
+}
+
+export const ROLE_LABELS: Record<MemberRole, string> = {
+  technician: "Technician",
+  commissioning_agent: "Commissioning agent",
+  engineer: "Engineer",
+  owner: "Owner",
+};

@@ -1,0 +1,42 @@
+import { describe, expect, it } from "vitest";
+import { ACTIONS, can, POLICY } from "@/lib/auth/policy";
+import { projectNav } from "@/lib/navigation";
+
+const member = { isAdmin: false };
+const admin = { isAdmin: true };
+
+describe("role policy", () => {
+  it("lets every member view the project and download reports", () => {
+    for (const role of ["technician", "commissioning_agent", "engineer", "owner"] as const) {
+      expect(can(member, role, "project.view")).toBe(true);
+      expect(can(member, role, "report.download")).toBe(true);
+    }
+  });
+
+  it("keeps each duty with its role", () => {
+    expect(can(member, "technician", "traverse.record")).toBe(true);
+    expect(can(member, "commissioning_agent", "traverse.record")).toBe(false);
+    expect(can(member, "commissioning_agent", "traverse.review")).toBe(true);
+    expect(can(member, "technician", "traverse.review")).toBe(false);
+    expect(can(member, "engineer", "deviation.accept")).toBe(true);
+    expect(can(member, "owner", "design.view")).toBe(false);
+  });
+
+  it("gives non-members nothing and site administrators only oversight", () => {
+    for (const action of ACTIONS) expect(can(member, null, action)).toBe(false);
+    expect(can(admin, null, "members.manage")).toBe(true);
+    expect(can(admin, null, "project.view")).toBe(true);
+    expect(can(admin, null, "traverse.record")).toBe(false);
+    expect(can(admin, null, "traverse.review")).toBe(false);
+    expect(POLICY["members.manage"]).toEqual([]);
+  });
+
+  it("shows each role its own work in the project navigation", () => {
+    const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
+    expect(labels("technician")).toEqual(["Overview", "Field work", "Reports"]);
+    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports"]);
+    expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports"]);
+    expect(labels("owner")).toEqual(["Overview", "Reports"]);
+    expect(labels(null, admin)).toEqual(["Overview", "Reports", "Members"]);
+  });
+});

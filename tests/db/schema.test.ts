@@ -1,0 +1,78 @@
+import { count, eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openDatabase, type DatabaseHandle } from "@/db/client";
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from "@/db/seed";
+import * as s from "@/db/schema";
+import { verifyPassword } from "@/lib/auth/password";
+
+// One in-memory PGlite for the file: opening one costs ~0.8 GB and a few seconds.
+let handle: DatabaseHandle;
+beforeAll(async () => {
+  handle = await openDatabase({ dataDir: "memory://" });
+});
+afterAll(async () => {
+  await handle.close();
+});
+
+describe("migrations and demo seed", () => {
+  it("applies the migrations and reports the embedded engine", async () => {
+    expect(handle.kind).toBe("pglite");
+    const tables = await handle.db.execute<{ table_name: string }>(
+      "select table_name from information_schema.tables where table_schema = 'public' order by table_name",
+    );
+    expect(tables.rows.map((r) => r.table_name)).toEqual([
+      "air_systems",
+      "audit_log",
+      "duct_sections",
+      "project_members",
+      "projects",
+      "readings",
+      "reviews",
+      "terminal_readings",
+      "terminals",
+      "traverses",
+      "users",
+    ]);
+  });
+
+  it("seeds the demo once and leaves a second run without duplicates", async () => {
+    expect(await seedDemo(handle.db)).toEqual({ seeded: true });
+    expect(await seedDemo(handle.db)).toEqual({ seeded: false });
+    const [users] = await handle.db.select({ n: count() }).from(s.users);
+    expect(users!.n).toBe(DEMO_ACCOUNTS.length);
+    const [projects] = await handle.db.select({ n: count() }).from(s.projects);
+    expect(projects!.n).toBe(2);
+  });
+
+  it("gives every demo role its membership and hashes passwords with Argon2id", async () => {
+    const rows = await handle.db
+      .select({ email: s.users.email, role: s.projectMembers.role, hash: s.users.passwordHash })
+      .from(s.users)
+      .leftJoin(s.projectMembers, eq(s.projectMembers.userId, s.users.id));
+    for (const account of DEMO_ACCOUNTS) {
+      const mine = rows.filter((r) => r.email === account.email);
+      if (account.role) expect(mine.map((r) => r.role)).toContain(account.role);
+      expect(mine[0]!.hash.startsWith("$argon2id$")).toBe(true);
+    }
+    expect(await verifyPassword(rows[0]!.hash, DEMO_PASSWORD)).toBe(true);
+    expect(await verifyPassword(rows[0]!.hash, "wrong-password")).toBe(false);
+  });
+
+  it("stores one complete traverse whose readings fill its layout", async () => {
+    const traverses = await handle.db.select().from(s.traverses);
+    expect(traverses).toHaveLength(1);
+    const t = traverses[0]!;
+    const [n] = await handle.db.select({ n: count() }).from(s.readings).where(eq(s.readings.traverseId, t.id));
+    expect(n!.n).toBe(t.lines * t.pointsPerLine);
+  });
+
+  it("rejects a duplicate e-mail in another case and a duct without dimensions", async () => {
+    await expect(
+      handle.db.insert(s.users).values({ email: "TECH@example.test", name: "x", passwordHash: "x" }),
+    ).rejects.toThrow();
+    const [system] = await handle.db.select().from(s.airSystems).limit(1);
+    await expect(
+      handle.db.insert(s.ductSections).values({ systemId: system!.id, tag: "Z9", kind: "branch", shape: "round", designFlowM3S: 1 }),
+    ).rejects.toThrow();
+  });
+});
