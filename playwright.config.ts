@@ -1,0 +1,45 @@
+import { execFileSync } from "node:child_process";
+import crypto from "node:crypto";
+import { defineConfig } from "@playwright/test";
+
+// Workers load this file again: keep the port and secret chosen by the first load.
+process.env.AIRTALLY_E2E_PORT ??= execFileSync(process.execPath, [
+  "-e",
+  "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})",
+]).toString();
+process.env.AIRTALLY_E2E_SECRET ??= crypto.randomBytes(32).toString("base64url");
+
+const port = Number(process.env.AIRTALLY_E2E_PORT);
+export const baseURL = `http://127.0.0.1:${port}`;
+
+export default defineConfig({
+  testDir: "e2e",
+  fullyParallel: false,
+  forbidOnly: true,
+  retries: 0,
+  workers: 2,
+  reporter: process.env.CI ? [["list"]] : [["list"], ["html", { open: "never" }]],
+  timeout: 30_000,
+  expect: { timeout: 10_000 },
+  use: {
+    baseURL,
+    viewport: { width: 1024, height: 768 },
+    trace: "retain-on-failure",
+    screenshot: "only-on-failure",
+    launchOptions: {
+      // Debian's Chromium: Playwright cannot download its own browser on this network.
+      executablePath: process.env.AIRTALLY_CHROMIUM ?? "/usr/bin/chromium",
+      args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    },
+  },
+  webServer: {
+    // The production build (rebuilt when sources changed) on a throwaway in-memory database with the demo seed.
+    command: "node_modules/.bin/tsx lib/cli/serve.ts --demo",
+    url: `${baseURL}/api/health`,
+    env: { PORT: String(port), AIRTALLY_DATA_DIR: "memory://", AIRTALLY_SESSION_SECRET: process.env.AIRTALLY_E2E_SECRET },
+    timeout: 420_000,
+    reuseExistingServer: false,
+    stdout: "pipe",
+    stderr: "pipe",
+  },
+});
