@@ -1,0 +1,106 @@
+/**
+ * Plane quality: is the velocity profile at this plane even enough to trust a traverse?
+ *
+ * Criteria and bands (all "common practice" unless noted; none is a hard gate — a poor plane still
+ * gives a number, with the reasons to distrust it):
+ * - share of points whose velocity pressure exceeds a tenth of the largest: > 75 % satisfactory
+ *   (fan field-testing practice, from memory); 50–75 % marginal; under 50 % poor;
+ * - max/mean velocity: ≤ 1.5 good, ≤ 2.0 marginal, above poor;
+ * - coefficient of variation of point velocities: ≤ 0.25 good, ≤ 0.40 marginal, above poor;
+ * - zero or negative readings (no forward flow at the point): any is marginal, over 10 % poor;
+ * - velocity pressures under 5 Pa (a ±1 Pa gauge is then ±9 % on velocity at 3 m/s): over half of
+ *   the points marginal (a precision problem, not a profile one).
+ */
+
+export type Verdict = "good" | "marginal" | "poor";
+
+export interface PlaneQuality {
+  /** Fraction 0…1 of points whose Pv exceeds 0.1 × the largest Pv. */
+  shareAboveTenthOfMax: number;
+  /** Largest point velocity / mean point velocity. */
+  maxOverMean: number;
+  /** Sample standard deviation / mean of point velocities. */
+  cv: number;
+  zeroOrNegativeCount: number;
+  /** Points with 0 < Pv < 5 Pa. */
+  lowPressureCount: number;
+  count: number;
+  verdict: Verdict;
+  reasons: string[];
+}
+
+/** Satisfactory share of points above a tenth of the largest Pv (fan field-testing practice, from memory). */
+export const SHARE_ABOVE_TENTH_GOOD = 0.75;
+const SHARE_ABOVE_TENTH_MARGINAL = 0.5;
+const MAX_OVER_MEAN_GOOD = 1.5;
+const MAX_OVER_MEAN_MARGINAL = 2.0;
+const CV_GOOD = 0.25;
+const CV_MARGINAL = 0.4;
+const ZERO_SHARE_POOR = 0.1;
+/** Below this velocity pressure a typical ±1 Pa gauge dominates the error (common practice, ≈ 0.02 in. w.c.). */
+export const LOW_VELOCITY_PRESSURE_PA = 5;
+const LOW_SHARE_MARGINAL = 0.5;
+
+const RANK: Record<Verdict, number> = { good: 0, marginal: 1, poor: 2 };
+
+function pct(x: number): string {
+  return `${Math.round(x * 100)} %`;
+}
+
+/**
+ * Judges a traverse plane from its point readings (the points actually read).
+ * `velocityPressuresPa[i]` and `velocitiesMS[i]` belong to the same point; velocities of zero or
+ * negative readings are 0. Throws RangeError for empty or mismatched inputs.
+ */
+export function assessPlane(velocityPressuresPa: readonly number[], velocitiesMS: readonly number[]): PlaneQuality {
+  const count = velocitiesMS.length;
+  if (count === 0 || velocityPressuresPa.length !== count) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
+  const maxPv = Math.max(...velocityPressuresPa);
+  const shareAboveTenthOfMax = maxPv > 0 ? velocityPressuresPa.filter((pv) => pv > 0.1 * maxPv).length / count : 0;
+  const mean = velocitiesMS.reduce((a, b) => a + b, 0) / count;
+  const maxV = Math.max(...velocitiesMS);
+  const variance = count > 1 ? velocitiesMS.reduce((acc, v) => acc + (v - mean) ** 2, 0) / (count - 1) : 0;
+  const maxOverMean = mean > 0 ? maxV / mean : Number.POSITIVE_INFINITY;
+  const cv = mean > 0 ? Math.sqrt(variance) / mean : Number.POSITIVE_INFINITY;
+  const zeroOrNegativeCount = velocityPressuresPa.filter((pv) => pv <= 0).length;
+  const lowPressureCount = velocityPressuresPa.filter((pv) => pv > 0 && pv < LOW_VELOCITY_PRESSURE_PA).length;
+
+  let verdict: Verdict = "good";
+  const reasons: string[] = [];
+  const grade = (v: Verdict, reason: string) => {
+    if (RANK[v] > RANK[verdict]) verdict = v;
+    reasons.push(reason);
+  };
+
+  if (mean <= 0) {
+    grade("poor", "No point shows forward flow: there is nothing to integrate.");
+    return { shareAboveTenthOfMax, maxOverMean, cv, zeroOrNegativeCount, lowPressureCount, count, verdict, reasons };
+  }
+  if (shareAboveTenthOfMax < SHARE_ABOVE_TENTH_MARGINAL)
+    grade("poor", `Only ${pct(shareAboveTenthOfMax)} of points read more than a tenth of the largest velocity pressure (over 75 % wanted): the flow is concentrated in part of the duct.`);
+  else if (shareAboveTenthOfMax <= SHARE_ABOVE_TENTH_GOOD)
+    grade("marginal", `${pct(shareAboveTenthOfMax)} of points read more than a tenth of the largest velocity pressure (over 75 % wanted).`);
+
+  if (maxOverMean > MAX_OVER_MEAN_MARGINAL)
+    grade("poor", `The fastest point is ${maxOverMean.toFixed(2)} × the mean velocity (up to ${MAX_OVER_MEAN_GOOD} expected on a good plane).`);
+  else if (maxOverMean > MAX_OVER_MEAN_GOOD)
+    grade("marginal", `The fastest point is ${maxOverMean.toFixed(2)} × the mean velocity (up to ${MAX_OVER_MEAN_GOOD} expected on a good plane).`);
+
+  if (cv > CV_MARGINAL) grade("poor", `Point velocities vary by ${pct(cv)} of the mean (coefficient of variation; up to ${pct(CV_GOOD)} expected).`);
+  else if (cv > CV_GOOD) grade("marginal", `Point velocities vary by ${pct(cv)} of the mean (coefficient of variation; up to ${pct(CV_GOOD)} expected).`);
+
+  if (zeroOrNegativeCount > 0) {
+    const share = zeroOrNegativeCount / count;
+    grade(
+      share > ZERO_SHARE_POOR ? "poor" : "marginal",
+      `${zeroOrNegativeCount} of ${count} points read zero or negative velocity pressure (no forward flow, possibly reverse flow or swirl); they count as zero velocity.`,
+    );
+  }
+  if (lowPressureCount > 0) {
+    const reason = `${lowPressureCount} of ${count} points read under ${LOW_VELOCITY_PRESSURE_PA} Pa, where the gauge's own error is large.`;
+    if (lowPressureCount / count > LOW_SHARE_MARGINAL) grade("marginal", reason);
+    else reasons.push(reason);
+  }
+  if (reasons.length === 0) reasons.push("Even profile: every criterion within the good band.");
+  return { shareAboveTenthOfMax, maxOverMean, cv, zeroOrNegativeCount, lowPressureCount, count, verdict, reasons };
+}
