@@ -18,18 +18,41 @@ export const DEMO_ACCOUNTS = [
 ] as const satisfies readonly { email: string; name: string; role: s.MemberRole | null; isAdmin: boolean }[];
 
 /**
- * Velocity pressures (Pa) for the supply trunk traverse, 7 lines × 5 points, log-Tchebycheff.
- * Invented readings shaped like a developed profile with a slight skew toward the far wall.
+ * Velocity pressures (Pa) of the demo traverses, line by line, point by point. Invented readings
+ * shaped like developed profiles with a little skew and scatter, so the branches account for a few
+ * per cent less air than the trunk carries, as leaky ductwork does.
  */
-const TRUNK_READINGS_PA = [
-  [7.7, 12.3, 14.1, 11.6, 8.5],
-  [11.4, 17.8, 21.7, 17.5, 12.3],
-  [14.1, 23.0, 25.4, 20.4, 15.3],
-  [16.7, 23.7, 28.3, 25.7, 15.8],
-  [15.6, 22.2, 27.5, 21.3, 15.3],
-  [13.6, 18.8, 23.9, 19.2, 14.1],
-  [9.3, 13.1, 16.3, 13.4, 9.6],
-];
+const DEMO_TRAVERSES = {
+  // 1200 × 600 rectangular, 7 lines × 5 points, log-Tchebycheff
+  S1: [
+    [7.7, 12.3, 14.1, 11.6, 8.5],
+    [11.4, 17.8, 21.7, 17.5, 12.3],
+    [14.1, 23.0, 25.4, 20.4, 15.3],
+    [16.7, 23.7, 28.3, 25.7, 15.8],
+    [15.6, 22.2, 27.5, 21.3, 15.3],
+    [13.6, 18.8, 23.9, 19.2, 14.1],
+    [9.3, 13.1, 16.3, 13.4, 9.6],
+  ],
+  // Ø 630 round, 2 diameters × 8 points, log-linear
+  "S1.1": [
+    [7.0, 11.0, 13.7, 16.0, 18.4, 14.1, 13.3, 8.6],
+    [7.8, 13.1, 13.9, 18.1, 16.5, 12.8, 12.3, 7.3],
+  ],
+  // 800 × 400 rectangular, 6 lines × 5 points, log-Tchebycheff
+  "S1.2": [
+    [5.4, 7.5, 9.5, 7.7, 5.6],
+    [7.4, 11.5, 14.0, 11.3, 8.0],
+    [9.0, 14.6, 16.1, 12.9, 9.7],
+    [9.5, 13.5, 16.1, 14.6, 9.0],
+    [8.0, 11.3, 14.0, 10.8, 7.8],
+    [5.4, 7.5, 9.5, 7.7, 5.6],
+  ],
+  // Ø 500 round, 2 diameters × 8 points, log-linear
+  "S1.3": [
+    [9.8, 14.7, 17.9, 19.4, 19.5, 13.9, 12.7, 7.9],
+    [7.9, 13.6, 14.7, 19.9, 19.4, 15.6, 15.2, 9.3],
+  ],
+} as const;
 
 type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
 
@@ -77,7 +100,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
       { projectId: clinic!.id, userId: userId("engineer@example.test"), role: "engineer" as const },
     ]);
 
-    await seedLibrary(tx, library!.id, userId("tech@example.test"));
+    await seedLibrary(tx, library!.id, userId("tech@example.test"), userId("cx@example.test"));
     await seedClinic(tx, clinic!.id);
 
     await tx.insert(s.auditLog).values({
@@ -92,7 +115,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
   return { seeded: true };
 }
 
-async function seedLibrary(tx: Tx, projectId: string, technicianId: string) {
+async function seedLibrary(tx: Tx, projectId: string, technicianId: string, reviewerId: string) {
   const [ahu, ef] = await tx
     .insert(s.airSystems)
     .values([
@@ -173,34 +196,52 @@ async function seedLibrary(tx: Tx, projectId: string, technicianId: string) {
     ...[1, 2].map((n) => terminal(workshop!.id, `EG-21${n}`, "exhaust", "Workshop and store", 0.2, "Exhaust grille 400×300")),
   ]);
 
-  const takenAt = new Date("2026-11-24T09:40:00Z");
-  const [traverse] = await tx
-    .insert(s.traverses)
-    .values({
-      sectionId: trunk!.id,
-      method: "log-linear",
-      lines: TRUNK_READINGS_PA.length,
-      pointsPerLine: TRUNK_READINGS_PA[0]!.length,
-      instrument: "Pitot-static tube, 900 mm, with digital micromanometer",
-      instrumentSerial: "MM-30418",
-      probeCoefficient: 1.0,
-      dryBulbC: 14.5,
-      relativeHumidityPct: 48,
-      barometricPa: 98_790,
-      staticPa: 310,
-      portOffsetMm: 25,
-      status: "submitted",
-      notes: "Ports on the top face, 9 m downstream of the coil, 2.4 m upstream of the first take-off.",
-      takenBy: technicianId,
-      takenAt,
-      submittedAt: new Date("2026-11-24T10:05:00Z"),
-    })
-    .returning();
-  await tx.insert(s.readings).values(
-    TRUNK_READINGS_PA.flatMap((line, i) =>
-      line.map((value, j) => ({ traverseId: traverse!.id, line: i + 1, point: j + 1, value, recordedAt: takenAt })),
-    ),
-  );
+  const plan = [
+    { section: trunk!, tag: "S1", minutes: 0, dryBulbC: 14.5, staticPa: 310, status: "submitted", notes: "Ports on the top face, 9 m downstream of the coil, 2.4 m upstream of the first take-off." },
+    { section: east!, tag: "S1.1", minutes: 55, dryBulbC: 15.2, staticPa: 180, status: "approved", notes: "Ports at 10 and 2 o'clock, above the ceiling grid." },
+    { section: west!, tag: "S1.2", minutes: 95, dryBulbC: 15.4, staticPa: 165, status: "approved", notes: "Ports on the top face from the access panel." },
+    { section: children!, tag: "S1.3", minutes: 130, dryBulbC: 15.6, staticPa: 140, status: "submitted", notes: "Damper fully open at the time of reading." },
+  ] as const;
+  const start = Date.parse("2026-11-24T09:40:00Z");
+  for (const item of plan) {
+    const grid = DEMO_TRAVERSES[item.tag];
+    const takenAt = new Date(start + item.minutes * 60_000);
+    const [traverse] = await tx
+      .insert(s.traverses)
+      .values({
+        sectionId: item.section.id,
+        method: "log-linear",
+        lines: grid.length,
+        pointsPerLine: grid[0]!.length,
+        instrument: "Pitot-static tube, 900 mm, with digital micromanometer",
+        instrumentSerial: "MM-30418",
+        probeCoefficient: 1.0,
+        dryBulbC: item.dryBulbC,
+        relativeHumidityPct: 47,
+        barometricPa: 98_790,
+        staticPa: item.staticPa,
+        portOffsetMm: 25,
+        status: item.status,
+        notes: item.notes,
+        takenBy: technicianId,
+        takenAt,
+        submittedAt: new Date(takenAt.getTime() + 20 * 60_000),
+      })
+      .returning();
+    await tx.insert(s.readings).values(
+      grid.flatMap((line, i) => line.map((value, j) => ({ traverseId: traverse!.id, line: i + 1, point: j + 1, value, recordedAt: takenAt }))),
+    );
+    if (item.status === "approved") {
+      await tx.insert(s.reviews).values({
+        traverseId: traverse!.id,
+        reviewerId,
+        decision: "approved",
+        reason: "Witnessed two points on each line; readings repeat within 2 %.",
+        witnessed: true,
+        traverseVersion: 1,
+      });
+    }
+  }
 }
 
 async function seedClinic(tx: Tx, projectId: string) {

@@ -1,5 +1,5 @@
 import "server-only";
-import type { ProjectDesign, StoredTraverse } from "@/db/queries/airflow";
+import { getProjectDesign, listTraversesForProject, type ProjectDesign, type StoredTraverse } from "@/db/queries/airflow";
 import type { AirSystem, DuctSection, Project } from "@/db/schema";
 import { checkContinuity, type Junction } from "@/lib/airflow/network";
 import { reduceTraverse, type TraverseResult } from "@/lib/airflow/traverse";
@@ -124,4 +124,10 @@ export function buildAirflowView(project: Project, design: ProjectDesign, traver
     }
     return { system, sections: views, junctions };
   });
+}
+
+/** Loads a project's design and traverses and reduces them: one read of each table. */
+export async function loadAirflowView(project: Project): Promise<SystemView[]> {
+  const [design, traverses] = await Promise.all([getProjectDesign({ projectId: project.id }), listTraversesForProject({ projectId: project.id })]);
+  return buildAirflowView(project, design, traverses);
 }

@@ -58,12 +58,13 @@ describe("migrations and demo seed", () => {
     expect(await verifyPassword(rows[0]!.hash, "wrong-password")).toBe(false);
   });
 
-  it("stores one complete traverse whose readings fill its layout", async () => {
+  it("stores complete traverses whose readings fill their layouts", async () => {
     const traverses = await handle.db.select().from(s.traverses);
-    expect(traverses).toHaveLength(1);
-    const t = traverses[0]!;
-    const [n] = await handle.db.select({ n: count() }).from(s.readings).where(eq(s.readings.traverseId, t.id));
-    expect(n!.n).toBe(t.lines * t.pointsPerLine);
+    expect(traverses.length).toBeGreaterThanOrEqual(1);
+    for (const t of traverses) {
+      const [n] = await handle.db.select({ n: count() }).from(s.readings).where(eq(s.readings.traverseId, t.id));
+      expect(n!.n).toBe(t.lines * t.pointsPerLine);
+    }
   });
 
   it("rejects a duplicate e-mail in another case and a duct without dimensions", async () => {

@@ -1,0 +1,36 @@
+import type { Metadata } from "next";
+import { Card } from "@/components/ui/card";
+import { SAFETY_CAUTIONS, SAFETY_FOOTNOTE } from "@/components/ui/caution";
+import { requireProjectPage } from "@/lib/auth/guards";
+import { loadAirflowView } from "@/lib/server/airflow-view";
+
+export const metadata: Metadata = { title: "Reports" };
+
+export default async function ReportsPage({ params }: { params: Promise<{ projectId: string }> }) {
+  const { projectId } = await params;
+  const { access } = await requireProjectPage(projectId, "report.download");
+  const systems = await loadAirflowView(access.project);
+  const sections = systems.flatMap((s) => s.sections);
+  const approved = sections.filter((s) => s.latest?.status === "approved").length;
+  const waiting = sections.filter((s) => s.latest?.status === "submitted").length;
+  const unread = sections.filter((s) => !s.latest).length;
+
+  return (
+    <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6 lg:grid-cols-3">
+      <Card title="Closeout reports" className="lg:col-span-2">
+        <p>No closeout report has been issued for this project yet.</p>
+        <p className="num mt-2 text-ink-soft">
+          Readiness: {approved} of {sections.length} duct sections approved, {waiting} awaiting review, {unread} not yet traversed.
+        </p>
+      </Card>
+      <Card title="Every report carries">
+        <ul className="list-disc space-y-1 pl-5 text-sm">
+          {SAFETY_CAUTIONS.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+        <p className="mt-2 text-sm font-semibold">{SAFETY_FOOTNOTE}</p>
+      </Card>
+    </main>
+  );
+}

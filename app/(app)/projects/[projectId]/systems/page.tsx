@@ -1,0 +1,104 @@
+import type { Metadata } from "next";
+import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
+import { Card } from "@/components/ui/card";
+import { NotAllowed } from "@/components/ui/not-allowed";
+import { StatusBadge, Verdict } from "@/components/ui/status";
+import { requireProjectPage } from "@/lib/auth/guards";
+import { loadAirflowView } from "@/lib/server/airflow-view";
+import { formatQuantity } from "@/lib/units";
+
+export const metadata: Metadata = { title: "Design vs measured" };
+
+export default async function DesignVsMeasuredPage({ params }: { params: Promise<{ projectId: string }> }) {
+  const { projectId } = await params;
+  const page = await requireProjectPage(projectId, "design.edit");
+  if (!page.allowed) return <NotAllowed what="the design comparison" />;
+  const { project } = page.access;
+  const units = unitSystemFor(page.user, project);
+  const systems = await loadAirflowView(project);
+  const flow = (v: number) => formatQuantity(units, "flow", v, { withUnit: false });
+  const flowUnit = formatQuantity(units, "flow", 0).split(" ").slice(1).join(" ");
+  const mass = (v: number) => formatQuantity(units, "massFlow", v, { withUnit: false });
+  const massUnit = formatQuantity(units, "massFlow", 0).split(" ").slice(1).join(" ");
+
+  return (
+    <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
+      <p className="text-ink-soft">
+        Design airflow is compared with measured flow at standard air ({project.standardDensityKgM3} kg/m³). Continuity is checked by mass at every
+        junction: volumes add only where the air has the same density. Tolerances: sections ±{project.sectionTolerancePct} %, junctions ±
+        {project.continuityTolerancePct} %.
+      </p>
+      {systems.map(({ system, sections, junctions }) => (
+        <Card key={system.id} title={`${system.tag} · ${system.name}`}>
+          <div className="overflow-x-auto">
+            <table className="w-full min-w-[46rem] text-left">
+              <caption className="sr-only">Sections of {system.tag}, design against measured</caption>
+              <thead className="border-b-2 border-line text-sm text-ink-muted">
+                <tr>
+                  <th className="py-2 pr-3">Section</th>
+                  <th className="py-2 pr-3">Size</th>
+                  <th className="py-2 pr-3 text-right">Design ({flowUnit})</th>
+                  <th className="py-2 pr-3 text-right">Actual ({flowUnit})</th>
+                  <th className="py-2 pr-3 text-right">Standard ({flowUnit})</th>
+                  <th className="py-2 pr-3 text-right">Mass ({massUnit})</th>
+                  <th className="py-2 pr-3">% of design</th>
+                  <th className="py-2">Traverse</th>
+                </tr>
+              </thead>
+              <tbody>
+                {sections.map((row) => {
+                  const r = row.reduction?.ok ? row.reduction.result : null;
+                  return (
+                    <tr key={row.section.id} className="border-b border-line">
+                      <td className="py-2 pr-3 font-semibold" style={{ paddingLeft: `${row.depth * 1.25}rem` }}>
+                        {row.section.tag}
+                      </td>
+                      <td className="py-2 pr-3">{ductSize(row.section, units)}</td>
+                      <td className="py-2 pr-3 text-right">{flow(row.section.designFlowM3S)}</td>
+                      <td className="py-2 pr-3 text-right">{r ? flow(r.flowM3S) : "—"}</td>
+                      <td className="py-2 pr-3 text-right">{r ? flow(r.standardFlowM3S) : "—"}</td>
+                      <td className="py-2 pr-3 text-right">{r ? mass(r.massFlowKgS) : "—"}</td>
+                      <td className="py-2 pr-3">
+                        {row.withinTolerance === null ? (
+                          "—"
+                        ) : (
+                          <span className="flex items-center gap-2">
+                            <span className="num">{pct(row.pctOfDesign, 1)}</span>
+                            <Verdict pass={row.withinTolerance} passLabel="in" failLabel="out" />
+                          </span>
+                        )}
+                      </td>
+                      <td className="py-2">{row.latest ? <StatusBadge status={row.latest.status} /> : <span className="text-ink-muted">none</span>}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <h3 className="mt-5 mb-2 text-lg font-semibold">Continuity at junctions</h3>
+          <ul className="space-y-2">
+            {junctions.map((j) => (
+              <li key={j.parent.id} className="rounded-card border border-line p-3">
+                <p className="font-semibold">
+                  {j.parent.tag} → {j.children.map((c) => c.tag).join(" + ")}
+                </p>
+                {j.status === "waiting" ? (
+                  <p className="text-ink-soft">Waiting for reduced traverses on {j.missing.join(", ")}.</p>
+                ) : (
+                  <>
+                    <p className="num">
+                      Trunk {mass(j.junction.parentMassFlowKgS)} {massUnit} · branches {mass(j.junction.childrenMassFlowKgS)} {massUnit} · imbalance{" "}
+                      {mass(j.junction.imbalanceKgS)} {massUnit} ({pct(j.junction.imbalancePct, 1)}, {formatQuantity(units, "flow", j.junction.imbalanceStandardM3S)} standard){" "}
+                      <Verdict pass={j.junction.pass} />
+                    </p>
+                    <p className="text-sm text-ink-soft">{j.junction.note}</p>
+                  </>
+                )}
+              </li>
+            ))}
+          </ul>
+        </Card>
+      ))}
+    </main>
+  );
+}

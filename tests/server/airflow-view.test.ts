@@ -1,0 +1,57 @@
+import { eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getDatabaseHandle, getDb } from "@/db/client";
+import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow";
+import { seedDemo } from "@/db/seed";
+import * as s from "@/db/schema";
+import { buildAirflowView, type SystemView } from "@/lib/server/airflow-view";
+
+let views: SystemView[];
+beforeAll(async () => {
+  const db = await getDb();
+  await seedDemo(db);
+  const [project] = await db.select().from(s.projects).where(eq(s.projects.siteName, "Wrenfield Community Library"));
+  const [design, traverses] = await Promise.all([getProjectDesign({ projectId: project!.id }), listTraversesForProject({ projectId: project!.id })]);
+  views = buildAirflowView(project!, design, traverses);
+});
+afterAll(async () => {
+  await (await getDatabaseHandle()).close();
+});
+
+describe("design against measured for the demo project", () => {
+  it("reduces every stored traverse and orders each duct tree trunk first", () => {
+    const supply = views.find((v) => v.system.tag === "AHU-1")!;
+    expect(supply.sections.map((r) => [r.section.tag, r.depth])).toEqual([
+      ["S1", 0],
+      ["S1.1", 1],
+      ["S1.2", 1],
+      ["S1.3", 1],
+    ]);
+    for (const row of supply.sections) {
+      expect(row.reduction?.ok).toBe(true);
+      if (!row.reduction?.ok) continue;
+      const r = row.reduction.result;
+      // Continuity of definitions: ṁ = ρ·Q and Q_std = ṁ/ρ_std (ASHRAE Fundamentals, definitions of standard air flow).
+      expect(r.massFlowKgS).toBeCloseTo(r.densityKgM3 * r.flowM3S, 9);
+      expect(r.standardFlowM3S).toBeCloseTo(r.massFlowKgS / 1.204, 9);
+      expect(row.pctOfDesign).toBeCloseTo((100 * r.standardFlowM3S) / row.section.designFlowM3S, 9);
+    }
+  });
+
+  it("checks the trunk junction by mass and says which junctions still wait for readings", () => {
+    const supply = views.find((v) => v.system.tag === "AHU-1")!;
+    const [junction] = supply.junctions;
+    expect(junction?.status).toBe("checked");
+    if (junction?.status !== "checked") return;
+    const mass = (tag: string) => {
+      const row = supply.sections.find((r) => r.section.tag === tag)!;
+      return row.reduction?.ok ? row.reduction.result.massFlowKgS : NaN;
+    };
+    const children = mass("S1.1") + mass("S1.2") + mass("S1.3");
+    expect(junction.junction.childrenMassFlowKgS).toBeCloseTo(children, 9);
+    expect(junction.junction.imbalancePct).toBeCloseTo((100 * (mass("S1") - children)) / mass("S1"), 9);
+
+    const exhaust = views.find((v) => v.system.tag === "EF-1")!;
+    expect(exhaust.junctions).toEqual([expect.objectContaining({ status: "waiting", missing: ["X1", "X1.1", "X1.2"] })]);
+  });
+});
