@@ -1,0 +1,143 @@
+import psychrolib from "psychrolib";
+import { describe, expect, it } from "vitest";
+import type { AirConditions } from "@/lib/airflow/air";
+import { reduceTraverse, type TraverseInput } from "@/lib/airflow/traverse";
+
+psychrolib.SetUnitSystem(psychrolib.SI);
+
+const KAPPA = 1.4;
+const AIR: AirConditions = { dryBulbC: 20, barometricPa: 101_325, staticPa: 0, relativeHumidityPct: 50 };
+// Reference density from psychrolib (ASHRAE Fundamentals ch. 1 equations), not from the engine.
+const RHO = psychrolib.GetMoistAirDensity(20, psychrolib.GetHumRatioFromRelHum(20, 0.5, 101_325), 101_325);
+const ROUND_600 = { shape: "round", diameterM: 0.6 } as const;
+
+/** Isentropic pitot series, Pv = ½ρV²(1 + M²/4 + M⁴/40), M² = ρV²/(κp) (closed form, airflow-methods.md §2). */
+function pvFromVelocity(v: number, rho = RHO, p = 101_325): number {
+  const m2 = (rho * v * v) / (KAPPA * p);
+  return 0.5 * rho * v * v * (1 + m2 / 4 + (m2 * m2) / 40);
+}
+
+const rel = (a: number, b: number) => Math.abs(a / b - 1);
+const base = (readings: (number | null)[][], extra: Partial<TraverseInput> = {}): TraverseInput => ({ duct: ROUND_600, method: "log-linear", air: AIR, readings, ...extra });
+
+describe("flows from a uniform plane", () => {
+  const v = 8;
+  const r = reduceTraverse(base([Array(8).fill(pvFromVelocity(v)), Array(8).fill(pvFromVelocity(v))]));
+
+  it("velocity, area, actual, mass and standard flow follow Q = A·V, ṁ = ρQ, Q_std = ṁ/1.204 (airflow-methods.md §4)", () => {
+    const area = (Math.PI * 0.6 ** 2) / 4;
+    expect(rel(r.densityKgM3, RHO)).toBeLessThan(1e-4);
+    expect(rel(r.meanVelocityMS, v)).toBeLessThan(1e-5);
+    expect(r.areaM2).toBeCloseTo(area, 12);
+    expect(rel(r.flowM3S, area * v)).toBeLessThan(1e-5);
+    expect(rel(r.massFlowKgS, RHO * area * v)).toBeLessThan(1e-4);
+    expect(rel(r.standardFlowM3S, (RHO * area * v) / 1.204)).toBeLessThan(1e-4); // 1.204 kg/m³: ASHRAE SI standard air (common practice)
+    expect(r.integrationRule).toBe("equal-weight");
+    expect(r.standardDensityKgM3).toBe(1.204);
+  });
+
+  it("Reynolds number on the hydraulic diameter with Sutherland viscosity (1.8133e-5 Pa·s at 20 °C, derived)", () => {
+    expect(rel(r.reynolds, (RHO * v * 0.6) / 1.8133e-5)).toBeLessThan(1e-3);
+  });
+
+  it("a different standard density changes only the standard flow", () => {
+    const r12 = reduceTraverse(base([Array(8).fill(50), Array(8).fill(50)], { standardDensityKgM3: 1.2 }));
+    const r1204 = reduceTraverse(base([Array(8).fill(50), Array(8).fill(50)]));
+    expect(r12.flowM3S).toBe(r1204.flowM3S);
+    expect(r12.standardFlowM3S).toBeCloseTo((r1204.standardFlowM3S * 1.204) / 1.2, 12);
+  });
+
+  it("uses the standard atmosphere when only the altitude is given (ASHRAE Fundamentals ch. 1: 1000 m → 89 875 Pa)", () => {
+    const at = reduceTraverse(base([[50, 50, 50, 50, 50, 50]], { air: { dryBulbC: 20, altitudeM: 1000, staticPa: 0, relativeHumidityPct: 0 } }));
+    expect(rel(at.air.barometricPa, 89_875)).toBeLessThan(2e-5);
+    expect(rel(at.densityKgM3, psychrolib.GetMoistAirDensity(20, 0, psychrolib.GetStandardAtmPressure(1000)))).toBeLessThan(1e-4);
+  });
+});
+
+describe("velocities are averaged, never pressures", () => {
+  it("on the 1/7 law the pressure-averaged velocity over-reads by about √(mean u²)/mean u − 1 = +1.0 % and the traverse does not", () => {
+    // Continuous 1/7 law: mean u² = 2/((a+1)(a+2)) with a = 2/7, mean u = 98/120 → ratio − 1 = +1.0 % (derived).
+    const a = 2 / 7;
+    const continuous = Math.sqrt(2 / ((a + 1) * (a + 2))) / (98 / 120) - 1;
+    expect(continuous * 100).toBeCloseTo(1.0, 1);
+
+    // ISO 3966 / ASHRAE 10-point log-linear positions; u = 15·(1 − r/R)^(1/7).
+    const ys = [0.019, 0.076, 0.153, 0.217, 0.361, 0.639, 0.783, 0.847, 0.924, 0.981];
+    const u = ys.map((y) => 15 * (1 - Math.abs(1 - 2 * y)) ** (1 / 7));
+    const r = reduceTraverse(base([u.map((x) => pvFromVelocity(x)), u.map((x) => pvFromVelocity(x))], { duct: { shape: "round", diameterM: 1 } }));
+    const meanU = u.reduce((s, x) => s + x, 0) / u.length;
+    expect(rel(r.meanVelocityMS, meanU)).toBeLessThan(1e-6);
+    const meanPv = u.reduce((s, x) => s + pvFromVelocity(x), 0) / u.length;
+    const fromMeanPressure = Math.sqrt((2 * meanPv) / RHO);
+    expect(fromMeanPressure / r.meanVelocityMS - 1).toBeGreaterThan(0.008);
+    expect(fromMeanPressure / r.meanVelocityMS - 1).toBeLessThan(0.013);
+  });
+});
+
+describe("flags and warnings", () => {
+  it("negative velocity pressures count as zero velocity and are flagged", () => {
+    const r = reduceTraverse(base([[-3, 40, 50, 50, 40, 0]]));
+    expect(r.points[0]?.velocityMS).toBe(0);
+    expect(r.points[5]?.velocityMS).toBe(0);
+    expect(r.quality.zeroOrNegativeCount).toBe(2);
+    expect(r.warnings.join(" ")).toMatch(/2 points read zero or negative/);
+  });
+
+  it("warns beyond Mach 0.25 (ISO 3966 limit): 95 m/s at 20 °C is Mach 0.277 with a = √(κRT) = 343.2 m/s", () => {
+    const pv = pvFromVelocity(95);
+    const r = reduceTraverse(base([Array(6).fill(pv)]));
+    expect(r.maxMach).toBeCloseTo(95 / Math.sqrt(1.4 * 287.042 * 293.15), 3);
+    expect(r.warnings.join(" ")).toMatch(/Mach 0\.28/);
+  });
+
+  it("warns about low velocity pressures (< 5 Pa, common practice)", () => {
+    const r = reduceTraverse(base([[3, 4, 4, 4, 4, 3]]));
+    expect(r.warnings.join(" ")).toMatch(/6 points read under 5 Pa/);
+  });
+
+  it("warns about a point over 3 × the mean (common practice)", () => {
+    const r = reduceTraverse(base([[2, 2, 2, 2, 2, 2, 2, 2, 2, 400]], { duct: ROUND_600, method: "equal-area" }));
+    expect(r.warnings.join(" ")).toMatch(/Line 1 point 10 reads .* over 3 × the mean/);
+  });
+
+  it("fewer lines or points than recommended is a warning, never an error", () => {
+    const r = reduceTraverse(base([[40, 50, 50, 40]], { method: "equal-area" }));
+    expect(r.layout.lineCount).toBe(1);
+    expect(r.warnings.join(" ")).toMatch(/fewer than the 2 recommended/);
+    expect(r.warnings.join(" ")).toMatch(/4 points per line is fewer than the 8 recommended/);
+  });
+
+  it("missing points switch to tributary areas and say so", () => {
+    const row = [30, 45, 50, 50, 45, 30];
+    const r = reduceTraverse(base([row, [null, ...row.slice(1)]]));
+    expect(r.integrationRule).toBe("tributary-area");
+    expect(r.warnings.join(" ")).toMatch(/1 point was not read/);
+    expect(r.quality.count).toBe(11);
+  });
+});
+
+describe("anemometer readings", () => {
+  it("standard velocities: ṁ = ρ_std·A·mean(V_std) whatever the plane density (thermal anemometers sense mass flux)", () => {
+    const hot: AirConditions = { dryBulbC: 45, barometricPa: 90_000, staticPa: -300, relativeHumidityPct: 20 };
+    const r = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_standard", air: hot }));
+    expect(rel(r.massFlowKgS, 1.204 * r.areaM2 * 5)).toBeLessThan(1e-12);
+    expect(r.meanVelocityMS).toBeGreaterThan(5); // hot, thin air: actual velocity above standard
+  });
+
+  it("actual velocities are used as read", () => {
+    const r = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_actual" }));
+    expect(r.meanVelocityMS).toBeCloseTo(5, 12);
+    expect(r.flowM3S).toBeCloseTo(5 * r.areaM2, 12);
+  });
+});
+
+describe("uncertainty", () => {
+  it("is finite and smaller on a well-read plane than with a coarse gauge on low pressures", () => {
+    const good = reduceTraverse(base([Array(8).fill(80), Array(8).fill(82)]));
+    const poor = reduceTraverse(base([Array(8).fill(4), Array(8).fill(5)], { instrument: { pressureFloorPa: 2 } }));
+    expect(Number.isFinite(good.uncertainty.combined)).toBe(true);
+    expect(good.uncertainty.combined).toBeLessThan(0.03);
+    expect(poor.uncertainty.combined).toBeGreaterThan(0.15);
+    expect(poor.warnings.join(" ")).toMatch(/uncertainty/);
+  });
+});
