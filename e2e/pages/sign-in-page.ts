@@ -17,6 +17,7 @@ export class SignInPage {
   }
 
   error() {
-    return this.page.getByRole("alert");
+    // Scoped to the form: Next adds its own (empty) route-announcer alert to every page.
+    return this.page.locator("form").getByRole("alert");
   }
 }
