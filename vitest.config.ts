@@ -1,12 +1,14 @@
 import path from "node:path";
 import { defineConfig } from "vitest/config";
 
+const root = import.meta.dirname;
+
 export default defineConfig({
   resolve: {
     alias: {
-      "@": path.resolve(__dirname),
+      "@": root,
       // Queries are marked server-only for Next; under vitest they simply run on the server.
-      "server-only": path.resolve(__dirname, "node_modules/server-only/empty.js"),
+      "server-only": path.join(root, "node_modules/server-only/empty.js"),
     },
   },
   test: {
