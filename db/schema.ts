@@ -263,7 +263,7 @@ export const auditLog = pgTable(
     entityId: text("entity_id"),
     detail: jsonb("detail").$type<Record<string, unknown>>().notNull().default({}),
   },
-  (t) => [index("audit_log_project_idx").on(t.projectId, t.at)],
+  (t) => [index("audit_log_project_idx").on(t.projectId, t.at), index("audit_log_action_idx").on(t.action, t.at)],
 );
 
 export type User = typeof users.$inferSelect;

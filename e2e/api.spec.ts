@@ -1,0 +1,63 @@
+import { expect, test, type APIRequestContext } from "@playwright/test";
+import { DEMO_PASSWORD } from "./pages/sign-in-page";
+
+async function signedIn(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, email: string) {
+  const api = await playwright.request.newContext({ baseURL });
+  expect((await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
+  return api;
+}
+
+// A 600 mm round duct, two diameters of six log-linear points (ISO 3966 positions).
+const TRAVERSE = {
+  duct: { shape: "round", diameter_mm: 600 },
+  method: "log-linear",
+  air: { dry_bulb_c: 20, barometric_pa: 101_325, static_pa: 0, relative_humidity_pct: 0 },
+  readings: [
+    [60, 60, 60, 60, 60, 60],
+    [60, 60, 60, 60, 60, 60],
+  ],
+};
+
+test("the engine answers signed-in users over HTTP with the CLI's contract", async ({ playwright, baseURL }) => {
+  const api = await signedIn(playwright, baseURL, "engineer@example.test");
+  const res = await api.post("/api/v1/calc/traverse", { data: TRAVERSE });
+  expect(res.status()).toBe(200);
+  const out = await res.json();
+  // Dry air at 20 °C, 101 325 Pa: ρ = p/(R·T) = 101 325/(287.042·293.15) = 1.2042 kg/m³ (ASHRAE Fundamentals ch. 1 eq. 28).
+  expect(out.density_kg_m3).toBeCloseTo(1.2042, 3);
+  // Uniform 60 Pa: V = √(2·60/1.2042) = 9.983 m/s (incompressible; the isentropic correction is −0.01 %), A = π·0.3² m².
+  expect(out.mean_velocity_m_s).toBeCloseTo(9.982, 2);
+  expect(out.flow_m3_s).toBeCloseTo(out.mean_velocity_m_s * Math.PI * 0.09, 6);
+  expect(out.points).toHaveLength(12);
+  await api.dispose();
+});
+
+test("bad engine input gets 400 with the field at fault, signed-out callers 401", async ({ playwright, baseURL, request }) => {
+  const api = await signedIn(playwright, baseURL, "tech@example.test");
+  const res = await api.post("/api/v1/calc/traverse", { data: { ...TRAVERSE, air: { ...TRAVERSE.air, relative_humidity_pct: 140 } } });
+  expect(res.status()).toBe(400);
+  const body = await res.json();
+  expect(Object.keys(body.error.fields)).toContain("air.relative_humidity_pct");
+  expect(body.error.fields["air.relative_humidity_pct"]).toContain("140");
+
+  const unknown = await api.post("/api/v1/calc/teleport", { data: {} });
+  expect(unknown.status()).toBe(400);
+  expect((await unknown.json()).error.fields).toHaveProperty("command");
+  await api.dispose();
+
+  expect((await request.post("/api/v1/calc/layout", { data: { duct: { shape: "round", diameter_mm: 600 }, method: "equal-area" } })).status()).toBe(401);
+});
+
+test("unknown API paths answer 404 in the API's error shape", async ({ request }) => {
+  const res = await request.get("/api/v1/no-such-thing");
+  expect(res.status()).toBe(404);
+  expect((await res.json()).error.message).toContain("/api/v1/no-such-thing");
+});
+
+test("repeated wrong passwords for one e-mail are slowed down", async ({ request }) => {
+  const attempt = () => request.post("/api/auth/sign-in", { data: { email: "nobody@example.test", password: "guess" } });
+  for (let i = 0; i < 10; i++) expect((await attempt()).status()).toBe(401);
+  const blocked = await attempt();
+  expect(blocked.status()).toBe(429);
+  expect((await blocked.json()).error.message).toContain("Too many wrong passwords");
+});
