@@ -109,3 +109,28 @@ test("the health check names the embedded database", async ({ request }) => {
   const res = await request.get("/api/health");
   expect(await res.json()).toEqual({ status: "ok", database: "pglite" });
 });
+
+test("each user picks the unit system every screen shows", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("owner@example.test");
+  await page.getByRole("link", { name: new RegExp(LIBRARY) }).click();
+  // The library project is set to SI: AHU-1's design airflow reads 4,000 L/s.
+  await expect(page.getByText("4,000 L/s").first()).toBeVisible();
+  await page.getByRole("group", { name: "Units" }).getByText("IP", { exact: true }).click();
+  // 4.000 m³/s ÷ 4.719474×10⁻⁴ m³/s per cfm (NIST SP 811) = 8 475.5 → 8,476 cfm.
+  await expect(page.getByText("8,476 cfm").first()).toBeVisible();
+  await page.reload();
+  await expect(page.getByRole("radio", { name: "IP" })).toBeChecked();
+  await page.getByRole("group", { name: "Units" }).getByText("Project", { exact: true }).click();
+  await expect(page.getByText("4,000 L/s").first()).toBeVisible();
+});
+
+test("a bad preference is refused with the field named", async ({ playwright, baseURL }) => {
+  const api = await playwright.request.newContext({ baseURL });
+  await api.post("/api/auth/sign-in", { data: { email: "owner@example.test", password: DEMO_PASSWORD } });
+  const res = await api.patch("/api/v1/me", { data: { unit_system: "metric" } });
+  expect(res.status()).toBe(400);
+  expect((await res.json()).error.fields).toHaveProperty("unit_system");
+  await api.dispose();
+});

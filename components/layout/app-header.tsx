@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { SessionUser } from "@/db/queries/users";
 import { SignOutButton } from "./sign-out-button";
+import { UnitSwitch } from "./unit-switch";
 import { Wordmark } from "./wordmark";
 
 export function AppHeader({ user }: { user: SessionUser }) {
@@ -15,7 +16,8 @@ export function AppHeader({ user }: { user: SessionUser }) {
             Projects
           </Link>
         </nav>
-        <div className="flex items-center gap-2">
+        <div className="flex flex-wrap items-center gap-3">
+          <UnitSwitch current={user.unitSystem} />
           <span className="text-sm text-paper-sunk">
             {user.name}
             {user.isAdmin && <span className="ml-2 rounded-full border border-paper-sunk px-2 py-0.5 text-xs">Site administrator</span>}

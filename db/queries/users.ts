@@ -34,3 +34,9 @@ export async function getUserForSignIn({ email }: { email: string }) {
     .where(eq(sql`lower(${users.email})`, email.trim().toLowerCase()));
   return row ?? null;
 }
+
+export async function setUserUnitSystem({ id, unitSystem }: { id: string; unitSystem: "IP" | "SI" | null }): Promise<SessionUser | null> {
+  const db = await getDb();
+  const [row] = await db.update(users).set({ unitSystem }).where(eq(users.id, id)).returning(sessionColumns);
+  return row ?? null;
+}
