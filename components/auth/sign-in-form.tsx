@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
+import { TextField } from "@/components/ui/text-field";
 
 interface FieldErrors {
   email?: string;
@@ -46,50 +47,28 @@ export function SignInForm() {
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-5">
-      <div>
-        <label htmlFor="email" className="mb-1 block font-semibold">
-          E-mail
-        </label>
-        <input
-          id="email"
-          name="email"
-          type="email"
-          autoComplete="username"
-          required
-          value={email}
-          onChange={(e) => setEmail(e.target.value)}
-          aria-invalid={fields.email ? true : undefined}
-          aria-describedby={fields.email ? "email-error" : undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-base"
-        />
-        {fields.email && (
-          <p id="email-error" className="mt-1 text-sm font-semibold text-fault">
-            {fields.email}
-          </p>
-        )}
-      </div>
-      <div>
-        <label htmlFor="password" className="mb-1 block font-semibold">
-          Password
-        </label>
-        <input
-          id="password"
-          name="password"
-          type="password"
-          autoComplete="current-password"
-          required
-          value={password}
-          onChange={(e) => setPassword(e.target.value)}
-          aria-invalid={fields.password ? true : undefined}
-          aria-describedby={fields.password ? "password-error" : undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-base"
-        />
-        {fields.password && (
-          <p id="password-error" className="mt-1 text-sm font-semibold text-fault">
-            {fields.password}
-          </p>
-        )}
-      </div>
+      <TextField
+        id="email"
+        label="E-mail"
+        name="email"
+        type="email"
+        autoComplete="username"
+        required
+        value={email}
+        onChange={(e) => setEmail(e.target.value)}
+        error={fields.email}
+      />
+      <TextField
+        id="password"
+        label="Password"
+        name="password"
+        type="password"
+        autoComplete="current-password"
+        required
+        value={password}
+        onChange={(e) => setPassword(e.target.value)}
+        error={fields.password}
+      />
       <div aria-live="polite">
         {message && (
           <p role="alert" className="rounded-card border-2 border-fault bg-fault-soft px-3 py-2 font-semibold text-fault">

@@ -9,7 +9,7 @@ export const SAFETY_CAUTIONS = [
 export const SAFETY_FOOTNOTE =
   "Results are for the engineer of record's review. Site rules, local codes and licensed practice govern.";
 
-export function Cautions() {
+export function Cautions({ title = "Work safely" }: { title?: string }) {
   return (
     <aside aria-labelledby="cautions-title" className="rounded-card border-2 border-caution bg-caution-soft p-4 text-ink">
       <h2 id="cautions-title" className="mb-2 flex items-center gap-2 text-lg text-caution">
@@ -17,7 +17,7 @@ export function Cautions() {
           <path d="M8 1.5L15 14H1L8 1.5z" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinejoin="round" />
           <path d="M8 6v4M8 11.8v.4" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
         </svg>
-        Work safely
+        {title}
       </h2>
       <ul className="list-disc space-y-1 pl-5 text-sm">
         {SAFETY_CAUTIONS.map((c) => (

@@ -3,6 +3,7 @@
  * barometric pressure, density and viscosity. Pure functions, SI units.
  * Equations: ASHRAE Handbook Fundamentals ch. 1 (psychrometrics), numbered as there.
  */
+import { EngineInputError } from "./errors";
 import {
   MOIST_VOLUME_FACTOR,
   MOLAR_MASS_RATIO_WATER_AIR,
@@ -49,14 +50,7 @@ export interface AirState {
 }
 
 /** A physically impossible combination of otherwise valid conditions; fields use the API's dotted snake_case paths. */
-export class AirStateError extends Error {
-  readonly fields: Record<string, string>;
-  constructor(message: string, fields: Record<string, string>) {
-    super(message);
-    this.name = "AirStateError";
-    this.fields = fields;
-  }
-}
+export class AirStateError extends EngineInputError {}
 
 /** Warning thresholds (common practice, our own choice of limits). */
 const STATIC_WARN_PA = 2_500;

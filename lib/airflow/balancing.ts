@@ -3,6 +3,7 @@
  * throttle the rest to its ratio, then branch to branch, then fan speed), and fan-law projections.
  * Pure functions, SI units (m³/s, Pa, W, rpm).
  */
+import { EngineInputError } from "./errors";
 
 /** Allowed deviation from design, in % (e.g. −5/+10, or −0/+10 for outside air; default ±10, common practice). */
 export interface Tolerance {
@@ -66,14 +67,7 @@ export interface BalancingOptions {
 }
 
 /** Bad balancing input; fields map dotted snake_case paths to a message. */
-export class BalancingError extends Error {
-  readonly fields: Record<string, string>;
-  constructor(message: string, fields: Record<string, string>) {
-    super(message);
-    this.name = "BalancingError";
-    this.fields = fields;
-  }
-}
+export class BalancingError extends EngineInputError {}
 
 const DEFAULT_TOLERANCE: Tolerance = { minusPct: 10, plusPct: 10 };
 const UNNAMED_BRANCH = "";

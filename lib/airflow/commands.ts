@@ -5,9 +5,9 @@
 import type { ZodError } from "zod";
 import { fail, issuePath, ok, type Result } from "@/lib/validation/result";
 import { layoutInputSchema, networkInputSchema, traverseInputSchema, type LayoutInputJson, type TraverseInputJson } from "@/lib/validation/calc";
-import { AirStateError } from "./air";
+import { EngineInputError } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
-import { checkContinuity, NetworkError } from "./network";
+import { checkContinuity } from "./network";
 import { reduceTraverse, type ReadingsKind } from "./traverse";
 
 export const CALC_COMMANDS = ["layout", "traverse", "network"] as const;
@@ -214,7 +214,7 @@ export function runCalcCommand(command: string, input: unknown): Result<unknown>
     return RUNNERS[command as CalcCommand](input);
   } catch (error) {
     // Impossible combinations only the engine can see (e.g. cycles, vapour pressure above total pressure).
-    if (error instanceof AirStateError || error instanceof NetworkError) return fail(error.message, error.fields);
+    if (error instanceof EngineInputError) return fail(error.message, error.fields);
     throw error;
   }
 }

@@ -10,3 +10,4 @@ export * from "./quality";
 export * from "./uncertainty";
 export * from "./traverse";
 export { runCalcCommand, CALC_COMMANDS, type CalcCommand } from "./commands";
+export * from "./errors";

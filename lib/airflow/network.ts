@@ -3,6 +3,7 @@
  * sum of its children's (steady flow, no storage). Volumes are compared only where densities agree.
  * Linear in the number of sections.
  */
+import { EngineInputError } from "./errors";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 
 /**
@@ -48,14 +49,7 @@ export interface ContinuityOptions {
 }
 
 /** Bad network input. `fields` maps dotted API paths (`nodes.3.parent`) to a message naming the value and what is allowed. */
-export class NetworkError extends Error {
-  readonly fields: Record<string, string>;
-  constructor(message: string, fields: Record<string, string>) {
-    super(message);
-    this.name = "NetworkError";
-    this.fields = fields;
-  }
-}
+export class NetworkError extends EngineInputError {}
 
 const DEFAULT_TOLERANCE_PCT = 10;
 /** Densities within 0.1 % make the volume error of summing negligible next to field uncertainty (5–10 %, from memory). */

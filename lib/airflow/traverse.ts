@@ -6,7 +6,7 @@
 import { airState, type AirConditions, type AirState } from "./air";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { planeMean, powerLawLayoutError, type IntegrationRule } from "./integrate";
-import { buildLayout, ductAreaM2, equivalentDiameterM, type Duct, type Layout, type LayoutMethod } from "./layout";
+import { buildLayout, ductAreaM2, equivalentDiameterM, type Layout, type LayoutRequest } from "./layout";
 import { assessPlane, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
 import {
   DEFAULT_INSTRUMENT_ACCURACY,
@@ -22,16 +22,8 @@ import { actualVelocityFromStandardMS, exceedsMachLimit, machNumber, velocityFro
 /** What the readings are: pitot velocity pressures (Pa), or anemometer velocities (m/s), actual or standard. */
 export type ReadingsKind = "velocity_pressure" | "velocity_actual" | "velocity_standard";
 
-export interface TraverseInput {
-  duct: Duct;
-  method: LayoutMethod;
-  /** Default: the number of rows in `readings`. */
-  lines?: number;
-  /** Default: the length of the first row of `readings`. */
-  pointsPerLine?: number;
-  straightUpstreamM?: number;
-  straightDownstreamM?: number;
-  portOffsetM?: number;
+/** The layout request plus what was read; `lines` and `pointsPerLine` default to the shape of `readings`. */
+export interface TraverseInput extends LayoutRequest {
   air: AirConditions;
   /** Probe coefficient C (1.0 for a standard pitot-static tube, common practice). */
   probeCoefficient?: number;

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { Card } from "@/components/ui/card";
-import { SAFETY_CAUTIONS, SAFETY_FOOTNOTE } from "@/components/ui/caution";
+import { Cautions } from "@/components/ui/caution";
 import { requireProjectPage } from "@/lib/auth/guards";
 import { loadAirflowView } from "@/lib/server/airflow-view";
 
@@ -23,14 +23,7 @@ export default async function ReportsPage({ params }: { params: Promise<{ projec
           Readiness: {approved} of {sections.length} duct sections approved, {waiting} awaiting review, {unread} not yet traversed.
         </p>
       </Card>
-      <Card title="Every report carries">
-        <ul className="list-disc space-y-1 pl-5 text-sm">
-          {SAFETY_CAUTIONS.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
-        <p className="mt-2 text-sm font-semibold">{SAFETY_FOOTNOTE}</p>
-      </Card>
+      <Cautions title="Every report carries these cautions" />
     </main>
   );
 }
