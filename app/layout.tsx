@@ -17,6 +17,9 @@ const barlow = localFont({
 export const metadata: Metadata = {
   title: { default: "Airtally", template: "%s · Airtally" },
   description: "Airflow commissioning: traverses, density-corrected flows, continuity and signed closeout reports.",
+  icons: { icon: "/icon.svg" },
+  // Project data is private: keep the app out of search engines.
+  robots: { index: false, follow: false },
 };
 
 export const viewport: Viewport = {

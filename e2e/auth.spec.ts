@@ -134,3 +134,26 @@ test("a bad preference is refused with the field named", async ({ playwright, ba
   expect((await res.json()).error.fields).toHaveProperty("unit_system");
   await api.dispose();
 });
+
+test("signing out ends the session and says so", async ({ page, context }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("cx@example.test");
+  await expect(page).toHaveURL(/\/projects$/);
+  await page.getByRole("banner").getByRole("button", { name: "Sign out" }).click();
+  await expect(page.getByRole("heading", { name: "You are signed out" })).toBeVisible();
+  expect((await context.cookies()).filter((c) => c.name === "airtally_session")).toHaveLength(0);
+  await page.goto("/projects");
+  await expect(page).toHaveURL(/\/sign-in$/);
+});
+
+test("the sign-out page asks before ending a session", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("owner@example.test");
+  await expect(page).toHaveURL(/\/projects$/);
+  await page.goto("/sign-out");
+  await expect(page.getByText("You are signed in as Maren Holt")).toBeVisible();
+  await page.getByRole("link", { name: "Stay signed in" }).click();
+  await expect(page).toHaveURL(/\/projects$/);
+});

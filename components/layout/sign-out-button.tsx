@@ -4,22 +4,37 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { buttonClasses } from "@/components/ui/button";
 
-export function SignOutButton() {
+/** Ends the session, then shows the signed-out page. */
+export function SignOutButton({ variant = "header" }: { variant?: "header" | "primary" }) {
   const router = useRouter();
   const [busy, setBusy] = useState(false);
+  const [failed, setFailed] = useState(false);
   return (
-    <button
-      type="button"
-      disabled={busy}
-      className={buttonClasses("quiet", "px-3 text-white")}
-      onClick={async () => {
-        setBusy(true);
-        await fetch("/api/auth/sign-out", { method: "POST" }).catch(() => undefined);
-        router.replace("/sign-in");
-        router.refresh();
-      }}
-    >
-      Sign out
-    </button>
+    <>
+      <button
+        type="button"
+        disabled={busy}
+        className={variant === "header" ? buttonClasses("quiet", "px-3 text-white") : buttonClasses("primary")}
+        onClick={async () => {
+          setBusy(true);
+          setFailed(false);
+          const res = await fetch("/api/auth/sign-out", { method: "POST" }).catch(() => null);
+          if (!res?.ok) {
+            setFailed(true);
+            setBusy(false);
+            return;
+          }
+          router.replace("/sign-out");
+          router.refresh();
+        }}
+      >
+        Sign out
+      </button>
+      {failed && (
+        <span role="alert" className={variant === "header" ? "text-sm text-caution-soft" : "text-sm font-semibold text-fault"}>
+          Could not reach the server to sign out; try again.
+        </span>
+      )}
+    </>
   );
 }
