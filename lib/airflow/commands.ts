@@ -118,6 +118,7 @@ function runTraverse(input: unknown): Result<unknown> {
       humidityAccuracyPct: ins.humidity_accuracy_pct,
       velocityAccuracyPct: ins.velocity_accuracy_pct,
       velocityFloorMS: ins.velocity_floor_m_s,
+      repeatabilityPct: ins.repeatability_pct,
     },
   });
   const t = r.uncertainty.terms;

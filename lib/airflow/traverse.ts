@@ -159,7 +159,6 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     // Q ∝ ρ^(−½) from pitot readings, independent of ρ from actual velocities, ∝ ρ^(−1) from standard velocities.
     densitySensitivity: kind === "velocity_pressure" ? 0.5 : kind === "velocity_actual" ? 0 : 1,
     layoutError: powerLawLayoutError(layout, mask),
-    cv: quality.cv,
     pointCount: read.length,
   });
   if (uncertainty.combined > HIGH_UNCERTAINTY)

@@ -6,6 +6,10 @@
  *
  * Each stated instrument accuracy is used as the standard uncertainty of that input, so the result
  * has the same coverage as the accuracies given. The ½ factors come from V ∝ √(Pv/ρ).
+ *
+ * u_random is the scatter of repeated readings at one point (turbulence, gauge damping), which averages
+ * down over N points. The spatial spread of a steady profile is not random: its effect on the mean is
+ * the layout's integration error (u_layout); a distorted plane is reported by the plane-quality verdict.
  */
 import { airState, barometricPressureFromAltitudePa, type AirConditions } from "./air";
 import type { Duct } from "./layout";
@@ -28,9 +32,14 @@ export interface InstrumentAccuracy {
   velocityAccuracyPct: number;
   /** …plus ± this many m/s. */
   velocityFloorMS: number;
+  /** Scatter of repeated time-averaged readings at one point, ± % of velocity. */
+  repeatabilityPct: number;
 }
 
-/** Typical field instruments (common practice): ±1 % + 1 Pa manometer, ±0.5 °C, ±200 Pa barometer, ±3 mm, ±3 % RH, anemometer ±3 % + 0.05 m/s. */
+/**
+ * Typical field instruments (common practice): ±1 % + 1 Pa manometer, ±0.5 °C, ±200 Pa barometer, ±3 mm,
+ * ±3 % RH, anemometer ±3 % + 0.05 m/s; ±2 % repeatability of a time-averaged point reading (from memory).
+ */
 export const DEFAULT_INSTRUMENT_ACCURACY: InstrumentAccuracy = {
   pressureAccuracyPct: 1,
   pressureFloorPa: 1,
@@ -40,6 +49,7 @@ export const DEFAULT_INSTRUMENT_ACCURACY: InstrumentAccuracy = {
   humidityAccuracyPct: 3,
   velocityAccuracyPct: 3,
   velocityFloorMS: 0.05,
+  repeatabilityPct: 2,
 };
 
 /** Day-to-day weather swing of station pressure about the standard atmosphere, used when only altitude is known (from memory). */
@@ -54,7 +64,7 @@ export interface UncertaintyTerms {
   density: number;
   /** Integration error of the layout. */
   layout: number;
-  /** Spread of the plane: coefficient of variation / √N. */
+  /** Repeatability of a point reading / √N. */
   random: number;
 }
 
@@ -146,8 +156,7 @@ export interface TraverseUncertaintyInput {
   densitySensitivity?: number;
   /** Integration error of the layout as a fraction (sign ignored). */
   layoutError: number;
-  /** Coefficient of variation of the point velocities, and the number of points read. */
-  cv: number;
+  /** Number of points read: the repeatability of each averages down by √N. */
   pointCount: number;
 }
 
@@ -158,7 +167,7 @@ export function traverseUncertainty(input: TraverseUncertaintyInput): { terms: U
     reading: input.readingRelative,
     density: (input.densitySensitivity ?? 0.5) * input.densityRelative,
     layout: Math.abs(input.layoutError),
-    random: Number.isFinite(input.cv) && input.pointCount > 0 ? input.cv / Math.sqrt(input.pointCount) : 0,
+    random: input.pointCount > 0 ? input.accuracy.repeatabilityPct / 100 / Math.sqrt(input.pointCount) : 0,
   };
   return { terms, combined: combineRelative(terms) };
 }

@@ -110,6 +110,7 @@ export const instrumentSchema = z.strictObject({
   humidity_accuracy_pct: ranged(0, 50, "% RH").optional(),
   velocity_accuracy_pct: ranged(0, 50, "% of reading").optional(),
   velocity_floor_m_s: ranged(0, 5, "m/s").optional(),
+  repeatability_pct: ranged(0, 50, "% of velocity").optional(),
 });
 
 const READING_RANGE = {

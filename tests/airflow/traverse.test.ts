@@ -141,3 +141,16 @@ describe("uncertainty", () => {
     expect(poor.warnings.join(" ")).toMatch(/uncertainty/);
   });
 });
+
+describe("uncertainty of a traverse", () => {
+  it("does not count a steady profile's spatial spread as random error (GUM: only the scatter of repeated readings averages down)", () => {
+    const pv = pvFromVelocity(10);
+    const uniform = reduceTraverse(base([Array(8).fill(pv), Array(8).fill(pv)]));
+    // A skewed but steady plane at the same level: ±30 % velocity across the duct.
+    const skew = [0.7, 0.8, 0.9, 1.0, 1.0, 1.1, 1.2, 1.3].map((k) => pvFromVelocity(10 * k));
+    const skewed = reduceTraverse(base([skew, skew]));
+    expect(skewed.uncertainty.terms.random).toBe(uniform.uncertainty.terms.random);
+    // Default ±2 % repeatability over 16 points: 0.02/√16 = 0.5 %.
+    expect(uniform.uncertainty.terms.random).toBeCloseTo(0.005, 12);
+  });
+});

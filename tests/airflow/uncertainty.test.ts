@@ -22,6 +22,7 @@ const NONE: InstrumentAccuracy = {
   humidityAccuracyPct: 0,
   velocityAccuracyPct: 0,
   velocityFloorMS: 0,
+  repeatabilityPct: 0,
 };
 
 describe("GUM combination", () => {
@@ -34,7 +35,6 @@ describe("GUM combination", () => {
       readingRelative,
       densityRelative: 0.005,
       layoutError: -0.01,
-      cv: 0,
       pointCount: 16,
     });
     expect(terms.dimension).toBeCloseTo(0.01, 12); // 2·u_D/D
@@ -44,10 +44,10 @@ describe("GUM combination", () => {
     expect(combined * 100).toBeCloseTo(1.52, 2);
   });
 
-  it("the spread of the plane enters as cv/√N", () => {
-    const base = { duct: { shape: "round", diameterM: 0.6 } as const, accuracy: NONE, readingRelative: 0, densityRelative: 0, layoutError: 0 };
-    expect(traverseUncertainty({ ...base, cv: 0.2, pointCount: 16 }).combined).toBeCloseTo(0.05, 12);
-    expect(traverseUncertainty({ ...base, cv: 0.2, pointCount: 64 }).combined).toBeCloseTo(0.025, 12);
+  it("point-reading repeatability averages down as u/√N (GUM §4.2.3, standard deviation of the mean)", () => {
+    const base = { duct: { shape: "round", diameterM: 0.6 } as const, accuracy: { ...NONE, repeatabilityPct: 4 }, readingRelative: 0, densityRelative: 0, layoutError: 0 };
+    expect(traverseUncertainty({ ...base, pointCount: 16 }).combined).toBeCloseTo(0.01, 12);
+    expect(traverseUncertainty({ ...base, pointCount: 64 }).combined).toBeCloseTo(0.005, 12);
   });
 
   it("rectangular area: √((u/W)² + (u/H)²); 3 mm on 1200 × 600 mm is 0.559 % (derived)", () => {
