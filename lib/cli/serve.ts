@@ -86,7 +86,13 @@ async function main() {
   const dataDir = defaultDataDir();
 
   // The server opens the data directory; refuse now rather than let two processes share it.
-  if (!env.DATABASE_URL && !dataDir.startsWith("memory://")) acquireDataDirLock(dataDir)();
+  if (!env.DATABASE_URL && !dataDir.startsWith("memory://")) {
+    try {
+      acquireDataDirLock(dataDir)();
+    } catch (err) {
+      fail((err as Error).message);
+    }
+  }
 
   try {
     // The secret rules read the mode from the environment, as the server will.
