@@ -61,3 +61,11 @@ test("repeated wrong passwords for one e-mail are slowed down", async ({ request
   expect(blocked.status()).toBe(429);
   expect((await blocked.json()).error.message).toContain("Too many wrong passwords");
 });
+
+test("many requests at once on the single-connection embedded database all succeed", async ({ playwright, baseURL }) => {
+  const api = await signedIn(playwright, baseURL, "engineer@example.test");
+  const calls = Array.from({ length: 40 }, (_, i) => (i % 2 === 0 ? api.get("/api/v1/projects") : api.get("/api/auth/me")));
+  const statuses = (await Promise.all(calls)).map((r) => r.status());
+  expect(statuses).toEqual(Array(40).fill(200));
+  await api.dispose();
+});

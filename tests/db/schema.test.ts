@@ -76,4 +76,21 @@ describe("migrations and demo seed", () => {
       handle.db.insert(s.ductSections).values({ systemId: system!.id, tag: "Z9", kind: "branch", shape: "round", designFlowM3S: 1 }),
     ).rejects.toThrow();
   });
+
+  it("keeps concurrent transactions apart on the single PGlite connection, rolling back only the one that fails", async () => {
+    const before = (await handle.db.select({ n: count() }).from(s.auditLog))[0]!.n;
+    const writes = Array.from({ length: 20 }, (_, i) =>
+      handle.db.transaction(async (tx) => {
+        await tx.insert(s.auditLog).values({ action: "test.concurrent", entityType: "test", entityId: String(i) });
+        if (i === 7) throw new Error("deliberate failure");
+        await tx.insert(s.auditLog).values({ action: "test.concurrent", entityType: "test", entityId: `${i}b` });
+      }),
+    );
+    const results = await Promise.allSettled(writes);
+    expect(results.filter((r) => r.status === "rejected")).toHaveLength(1);
+    const after = (await handle.db.select({ n: count() }).from(s.auditLog))[0]!.n;
+    expect(after - before).toBe(19 * 2);
+    const orphan = await handle.db.select().from(s.auditLog).where(eq(s.auditLog.entityId, "7"));
+    expect(orphan).toHaveLength(0);
+  });
 });
