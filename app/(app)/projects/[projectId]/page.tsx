@@ -35,7 +35,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
   ];
 
   return (
-    <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6 lg:grid-cols-3">
+    <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
       <div className="space-y-gutter lg:col-span-2">
         {systems.length === 0 && <EmptyState>No air systems yet. The engineer adds them from the design schedule.</EmptyState>}
         {systems.map(({ system, sections: rows }) => (

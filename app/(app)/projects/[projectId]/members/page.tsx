@@ -14,7 +14,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
   const { project } = page.access;
   const members = await listProjectMembers({ projectId });
   return (
-    <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6 lg:grid-cols-3">
+    <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
       <Card title="Members" className="lg:col-span-2">
         <table className="w-full text-left">
           <thead className="border-b-2 border-line text-sm text-ink-muted">

@@ -16,7 +16,7 @@ export default async function ReportsPage({ params }: { params: Promise<{ projec
   const unread = sections.filter((s) => !s.latest).length;
 
   return (
-    <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6 lg:grid-cols-3">
+    <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
       <Card title="Closeout reports" className="lg:col-span-2">
         <p>No closeout report has been issued for this project yet.</p>
         <p className="num mt-2 text-ink-soft">
