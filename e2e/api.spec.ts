@@ -69,3 +69,24 @@ test("many requests at once on the single-connection embedded database all succe
   expect(statuses).toEqual(Array(40).fill(200));
   await api.dispose();
 });
+
+test("a project's design is readable by its members only", async ({ playwright, baseURL }) => {
+  const engineer = await signedIn(playwright, baseURL, "engineer@example.test");
+  const { projects } = (await (await engineer.get("/api/v1/projects")).json()) as { projects: { id: string; name: string }[] };
+  const clinic = projects.find((p) => p.name.startsWith("Marlow Quay"))!;
+  const library = projects.find((p) => p.name.startsWith("Wrenfield"))!;
+  const res = await engineer.get(`/api/v1/projects/${library.id}`);
+  expect(res.status()).toBe(200);
+  const body = await res.json();
+  expect(body.role).toBe("engineer");
+  expect(body.systems.map((s: { tag: string }) => s.tag)).toEqual(["AHU-1", "EF-1"]);
+  expect(body.sections).toHaveLength(7);
+  await engineer.dispose();
+
+  const tech = await signedIn(playwright, baseURL, "tech@example.test");
+  const hidden = await tech.get(`/api/v1/projects/${clinic.id}`);
+  expect(hidden.status()).toBe(404);
+  expect((await hidden.json()).error.message).toContain("not a member");
+  expect((await tech.get("/api/v1/projects/not-a-uuid")).status()).toBe(404);
+  await tech.dispose();
+});

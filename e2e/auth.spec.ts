@@ -157,3 +157,13 @@ test("the sign-out page asks before ending a session", async ({ page }) => {
   await page.getByRole("link", { name: "Stay signed in" }).click();
   await expect(page).toHaveURL(/\/projects$/);
 });
+
+test("a role that opens another role's screen is told why it cannot use it", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn("tech@example.test");
+  await page.getByRole("link", { name: new RegExp(LIBRARY) }).click();
+  await expect(page.getByRole("heading", { level: 1, name: LIBRARY })).toBeVisible();
+  await page.goto(`${page.url()}/review`);
+  await expect(page.getByRole("alert").filter({ hasText: "does not include reviewing readings" })).toBeVisible();
+});
