@@ -1,6 +1,7 @@
 import "server-only";
 import { getProjectDesign, listTraversesForProject, type ProjectDesign, type StoredTraverse } from "@/db/queries/airflow";
 import type { AirSystem, DuctSection, Project } from "@/db/schema";
+import { fanSpeedForFlow, proportionalBalance, type BranchPlan } from "@/lib/airflow/balancing";
 import { checkContinuity, type Junction } from "@/lib/airflow/network";
 import { reduceTraverse, type TraverseResult } from "@/lib/airflow/traverse";
 import type { Duct } from "@/lib/airflow/layout";
@@ -66,10 +67,24 @@ export type JunctionView =
   | { parent: DuctSection; children: DuctSection[]; status: "checked"; junction: Junction }
   | { parent: DuctSection; children: DuctSection[]; status: "waiting"; missing: string[] };
 
+/** Fan laws on today's readings: the speed that would bring the system to design, and what that costs. */
+export interface FanAid {
+  measuredFlowM3S: number;
+  designFlowM3S: number;
+  speedRpm: number;
+  targetSpeedRpm: number;
+  /** Pressure and power at the target speed as multiples of today's (fan laws: N², N³). */
+  pressureFactor: number;
+  powerFactor: number;
+}
+
 export interface SystemView {
   system: AirSystem;
   sections: SectionView[];
   junctions: JunctionView[];
+  /** Branch-to-branch proportional balancing below each junction whose branches are all measured. */
+  branchPlans: BranchPlan[];
+  fan: FanAid | null;
 }
 
 /** Design against measurement for every system: per-section % of design and continuity by mass at each junction. */
@@ -122,7 +137,7 @@ export function buildAirflowView(project: Project, design: ProjectDesign, traver
       });
       junctions.push({ parent, children: kids, status: "checked", junction: junction! });
     }
-    return { system, sections: views, junctions };
+    return { system, sections: views, junctions, branchPlans: branchPlans(sections, children, byId, project), fan: fanAid(system, children.get(null) ?? [], byId) };
   });
 }
 
@@ -130,4 +145,41 @@ export function buildAirflowView(project: Project, design: ProjectDesign, traver
 export async function loadAirflowView(project: Project): Promise<SystemView[]> {
   const [design, traverses] = await Promise.all([getProjectDesign({ projectId: project.id }), listTraversesForProject({ projectId: project.id })]);
   return buildAirflowView(project, design, traverses);
+}
+
+function measuredStandardFlow(view: SectionView | undefined): number | null {
+  return view?.reduction?.ok ? view.reduction.result.standardFlowM3S : null;
+}
+
+function branchPlans(sections: DuctSection[], children: Map<string | null, DuctSection[]>, byId: Map<string, SectionView>, project: Project): BranchPlan[] {
+  const plans: BranchPlan[] = [];
+  for (const parent of sections) {
+    const kids = children.get(parent.id) ?? [];
+    const flows = kids.map((k) => measuredStandardFlow(byId.get(k.id)));
+    if (kids.length < 2 || flows.some((f) => f === null)) continue;
+    const tolerance = { minusPct: project.sectionTolerancePct, plusPct: project.sectionTolerancePct };
+    const plan = proportionalBalance(
+      kids.map((k, i) => ({ id: k.tag, branch: parent.tag, designM3S: k.designFlowM3S, measuredM3S: flows[i]! })),
+      { tolerance },
+    );
+    plans.push(...plan.branches);
+  }
+  return plans;
+}
+
+function fanAid(system: AirSystem, roots: DuctSection[], byId: Map<string, SectionView>): FanAid | null {
+  const flows = roots.map((r) => measuredStandardFlow(byId.get(r.id)));
+  if (system.fanSpeedRpm === null || roots.length === 0 || flows.some((f) => f === null)) return null;
+  const measuredFlowM3S = flows.reduce<number>((a, f) => a + f!, 0);
+  if (measuredFlowM3S <= 0) return null;
+  // Fan pressure and power were not read, so project a unit point: the results are the factors on today's values.
+  const projected = fanSpeedForFlow({ speedRpm: system.fanSpeedRpm, flowM3S: measuredFlowM3S, pressurePa: 1, powerW: 1 }, system.designFlowM3S);
+  return {
+    measuredFlowM3S,
+    designFlowM3S: system.designFlowM3S,
+    speedRpm: system.fanSpeedRpm,
+    targetSpeedRpm: projected.speedRpm,
+    pressureFactor: projected.pressurePa,
+    powerFactor: projected.powerW,
+  };
 }

@@ -54,4 +54,26 @@ describe("design against measured for the demo project", () => {
     const exhaust = views.find((v) => v.system.tag === "EF-1")!;
     expect(exhaust.junctions).toEqual([expect.objectContaining({ status: "waiting", missing: ["X1", "X1.1", "X1.2"] })]);
   });
+
+  it("plans branch balancing from the lowest ratio and projects the fan speed by the fan laws", () => {
+    const supply = views.find((v) => v.system.tag === "AHU-1")!;
+    const ratio = (tag: string) => {
+      const row = supply.sections.find((r) => r.section.tag === tag)!;
+      return row.reduction?.ok ? row.reduction.result.standardFlowM3S / row.section.designFlowM3S : NaN;
+    };
+    const [plan] = supply.branchPlans;
+    const lowest = ["S1.1", "S1.2", "S1.3"].sort((a, b) => ratio(a) - ratio(b))[0];
+    // Proportional balancing (common practice): the lowest measured/design ratio is the reference and stays open.
+    expect(plan?.indexTerminal).toBe(lowest);
+    expect(plan?.steps[0]).toMatchObject({ id: lowest, role: "index" });
+
+    // Fan laws (airflow-methods.md §6): N₂ = N₁·Q₂/Q₁, p ∝ N², P ∝ N³.
+    const fan = supply.fan!;
+    // S1 carries the whole fan and its design equals AHU-1's, so the speed ratio is 1 / S1's ratio.
+    const n = 1 / ratio("S1");
+    expect(fan.targetSpeedRpm).toBeCloseTo(1150 * n, 6);
+    expect(fan.pressureFactor).toBeCloseTo(n ** 2, 9);
+    expect(fan.powerFactor).toBeCloseTo(n ** 3, 9);
+    expect(views.find((v) => v.system.tag === "EF-1")!.fan).toBeNull();
+  });
 });

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { BalancingAids } from "@/components/airflow/balancing-aids";
 import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
 import { Card } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
@@ -28,7 +29,7 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
         junction: volumes add only where the air has the same density. Tolerances: sections ±{project.sectionTolerancePct} %, junctions ±
         {project.continuityTolerancePct} %.
       </p>
-      {systems.map(({ system, sections, junctions }) => (
+      {systems.map(({ system, sections, junctions, branchPlans, fan }) => (
         <Card key={system.id} title={`${system.tag} · ${system.name}`}>
           <div className="overflow-x-auto">
             <table className="w-full min-w-[46rem] text-left">
@@ -97,6 +98,8 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
               </li>
             ))}
           </ul>
+          <h3 className="mt-5 mb-2 text-lg font-semibold">Balancing aids</h3>
+          <BalancingAids plans={branchPlans} fan={fan} units={units} />
         </Card>
       ))}
     </main>
