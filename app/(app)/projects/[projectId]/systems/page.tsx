@@ -6,7 +6,7 @@ import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge, Verdict } from "@/components/ui/status";
 import { requireProjectPage } from "@/lib/auth/guards";
 import { loadAirflowView } from "@/lib/server/airflow-view";
-import { formatQuantity } from "@/lib/units";
+import { displayUnit, formatQuantity } from "@/lib/units";
 
 export const metadata: Metadata = { title: "Design vs measured" };
 
@@ -18,9 +18,9 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
   const units = unitSystemFor(page.user, project);
   const systems = await loadAirflowView(project);
   const flow = (v: number) => formatQuantity(units, "flow", v, { withUnit: false });
-  const flowUnit = formatQuantity(units, "flow", 0).split(" ").slice(1).join(" ");
+  const flowUnit = displayUnit(units, "flow").symbol;
   const mass = (v: number) => formatQuantity(units, "massFlow", v, { withUnit: false });
-  const massUnit = formatQuantity(units, "massFlow", 0).split(" ").slice(1).join(" ");
+  const massUnit = displayUnit(units, "massFlow").symbol;
 
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
