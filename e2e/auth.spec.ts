@@ -103,6 +103,8 @@ test("a user sees only the projects they belong to", async ({ playwright, baseUR
   await expect(page).toHaveURL(/\/projects$/);
   const res = await page.goto(`/projects/${clinicId}`);
   expect(res?.status()).toBe(404);
+  await expect(page.getByRole("heading", { name: "Not found" })).toBeVisible();
+  await expect(page.getByText("Marlow Quay")).toHaveCount(0);
 });
 
 test("the health check names the embedded database", async ({ request }) => {

@@ -50,7 +50,7 @@ function fail(message: string): never {
   process.exit(1);
 }
 
-function ensureBuild() {
+function ensureBuild(env: NodeJS.ProcessEnv) {
   const wanted = sourceHash();
   const built = fs.existsSync(path.join(root, ".next", "BUILD_ID")) && fs.existsSync(stampFile) ? fs.readFileSync(stampFile, "utf8") : "";
   if (built === wanted) {
@@ -58,7 +58,7 @@ function ensureBuild() {
     return;
   }
   console.log(built ? "Sources changed since the last build: rebuilding…" : "No production build yet: building (a minute or two)…");
-  const result = spawnSync(nextBin, ["build"], { stdio: "inherit", env: { ...process.env, NODE_ENV: "production" } });
+  const result = spawnSync(nextBin, ["build"], { stdio: "inherit", env });
   if (result.status !== 0) fail("the production build failed (see above).");
   fs.writeFileSync(stampFile, wanted);
 }
@@ -81,7 +81,8 @@ async function waitForHealth(child: ReturnType<typeof spawn>): Promise<void> {
 
 async function main() {
   if (!Number.isInteger(port) || port < 1 || port > 65535) fail(`PORT must be a whole number from 1 to 65535; it is "${process.env.PORT}".`);
-  const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: "production", PORT: String(port) };
+  // Sites often have no internet: do not let the framework try to send usage telemetry.
+  const env: NodeJS.ProcessEnv = { NEXT_TELEMETRY_DISABLED: "1", ...process.env, NODE_ENV: "production", PORT: String(port) };
   if (demo) env.AIRTALLY_DEMO = "1";
   const dataDir = defaultDataDir();
 
@@ -103,7 +104,7 @@ async function main() {
     throw err;
   }
 
-  ensureBuild();
+  ensureBuild(env);
 
   const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: "inherit", env });
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => child.kill(signal));
