@@ -1,9 +1,13 @@
+import { useId } from "react";
+
+/** A titled panel; the title names the region for assistive technology. */
 export function Card({ title, children, actions, className = "" }: { title?: React.ReactNode; children: React.ReactNode; actions?: React.ReactNode; className?: string }) {
+  const titleId = useId();
   return (
-    <section className={`rounded-card border border-line bg-paper-raised p-gutter shadow-sm ${className}`}>
+    <section aria-labelledby={title ? titleId : undefined} className={`rounded-card border border-line bg-paper-raised p-gutter shadow-sm ${className}`}>
       {(title || actions) && (
         <header className="mb-3 flex flex-wrap items-center justify-between gap-3">
-          {title && <h2>{title}</h2>}
+          {title && <h2 id={titleId}>{title}</h2>}
           {actions}
         </header>
       )}

@@ -1,0 +1,48 @@
+import { expect, test, type Page } from "@playwright/test";
+import { SignInPage } from "./pages/sign-in-page";
+
+async function openLibraryTab(page: Page, email: string, tab: string) {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn(email);
+  await page.getByRole("link", { name: /Wrenfield Library/ }).click();
+  await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: tab }).click();
+  await expect(page.getByRole("link", { name: tab })).toHaveAttribute("aria-current", "page");
+}
+
+test("the technician's field work shows the safety cautions, suggested layouts and where each section stands", async ({ page }) => {
+  await openLibraryTab(page, "tech@example.test", "Field work");
+  await expect(page.getByRole("heading", { name: "Work safely" })).toBeVisible();
+  await expect(page.getByText(/lock out and tag out/)).toBeVisible();
+  // 1200 × 600 mm trunk: ASHRAE log-Tchebycheff rule, > 914 mm → 7 lines, < 762 mm → 5 points.
+  const trunk = page.getByRole("listitem").filter({ hasText: "S1 ·" }).first();
+  await expect(trunk).toContainText("7 lines × 5 points (log-Tchebycheff)");
+  await expect(trunk).toContainText("Awaiting review");
+  await expect(page.getByRole("listitem").filter({ hasText: "X1 ·" }).first()).toContainText("No traverse yet");
+});
+
+test("the commissioning agent's review queue lists the submitted traverses with their results", async ({ page }) => {
+  await openLibraryTab(page, "cx@example.test", "Review");
+  await expect(page.getByRole("heading", { name: "Awaiting your review (2)" })).toBeVisible();
+  const trunk = page.getByRole("region").filter({ hasText: "AHU-1 / S1 ·" });
+  await expect(trunk).toContainText("Standard flow");
+  await expect(trunk).toContainText("Good plane");
+  await expect(trunk).toContainText("of flow");
+});
+
+test("the engineer sees design against measured, continuity by mass and balancing aids", async ({ page }) => {
+  await openLibraryTab(page, "engineer@example.test", "Design vs measured");
+  const supply = page.getByRole("region").filter({ hasText: "AHU-1 · Reading rooms supply" });
+  await expect(supply.getByRole("row").filter({ hasText: "S1.3" })).toContainText("out");
+  await expect(supply).toContainText("S1 → S1.1 + S1.2 + S1.3");
+  await expect(supply).toContainText("compare mass flows, not volumes");
+  await expect(supply).toContainText("Reference: leave fully open");
+  await expect(supply).toContainText("would reach design (fan laws)");
+  await expect(page.getByRole("region").filter({ hasText: "EF-1" })).toContainText("Waiting for reduced traverses on X1, X1.1, X1.2.");
+});
+
+test("the owner's reports screen shows readiness and the cautions every report carries", async ({ page }) => {
+  await openLibraryTab(page, "owner@example.test", "Reports");
+  await expect(page.getByText("Readiness: 2 of 7 duct sections approved, 2 awaiting review, 3 not yet traversed.")).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Every report carries these cautions" })).toBeVisible();
+});
