@@ -11,7 +11,3 @@ export function ductSize(section: Pick<DuctSection, "shape" | "diameterMm" | "wi
 export function pct(value: number | null, decimals = 0): string {
   return value === null ? "—" : `${value.toFixed(decimals)} %`;
 }
-
-export function unitSystemFor(user: { unitSystem: UnitSystem | null }, project: { unitSystem: UnitSystem }): UnitSystem {
-  return user.unitSystem ?? project.unitSystem;
-}

@@ -39,6 +39,11 @@ export const DISPLAY_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Quantity
   },
 };
 
+/** The unit system a user sees: their own choice, else the project's. */
+export function unitSystemFor(user: { unitSystem: UnitSystem | null }, project: { unitSystem: UnitSystem }): UnitSystem {
+  return user.unitSystem ?? project.unitSystem;
+}
+
 /** The display unit and decimals for a quantity in a unit system. */
 export function displayUnit(system: UnitSystem, quantity: Quantity): DisplayUnit {
   return DISPLAY_UNITS[system][quantity];

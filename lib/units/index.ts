@@ -1,2 +1,2 @@
 export { ENGINE_UNITS, UNITS, UnitError, convert, fromSi, toSi, type Quantity, type UnitId } from "./convert";
-export { DISPLAY_UNITS, displayUnit, formatQuantity, fromDisplay, toDisplay, type DisplayUnit, type UnitSystem } from "./display";
+export { DISPLAY_UNITS, displayUnit, formatQuantity, fromDisplay, toDisplay, unitSystemFor, type DisplayUnit, type UnitSystem } from "./display";

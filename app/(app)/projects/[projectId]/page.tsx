@@ -1,21 +1,19 @@
 import type { Metadata } from "next";
-import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
+import { notFound } from "next/navigation";
+import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { Verdict } from "@/components/ui/status";
-import { requireProjectPage } from "@/lib/auth/guards";
-import { loadAirflowView } from "@/lib/server/airflow-view";
 import { formatQuantity } from "@/lib/units";
+import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Project overview" };
 
 const KIND_LABEL = { supply: "Supply", return: "Return", exhaust: "Exhaust", outside_air: "Outside air" } as const;
 
 export default async function ProjectOverviewPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const { projectId } = await params;
-  const { user, access } = await requireProjectPage(projectId, "project.view");
-  const { project } = access;
-  const units = unitSystemFor(user, project);
-  const systems = await loadAirflowView(project);
+  const screen = await loadAirflowScreen(params, "project.view");
+  if (!screen.allowed) notFound();
+  const { project, units, systems } = screen;
 
   const sections = systems.flatMap((s) => s.sections);
   const measured = sections.filter((s) => s.reduction?.ok);

@@ -1,23 +1,20 @@
 import type { Metadata } from "next";
-import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
+import { ductSize, pct } from "@/components/airflow/format";
 import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
-import { requireProjectPage } from "@/lib/auth/guards";
 import { recommendLayout } from "@/lib/airflow/layout";
-import { ductOf, loadAirflowView } from "@/lib/server/airflow-view";
+import { ductOf } from "@/lib/server/airflow-view";
 import { formatQuantity } from "@/lib/units";
+import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Field work" };
 
 export default async function FieldWorkPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const { projectId } = await params;
-  const page = await requireProjectPage(projectId, "traverse.record");
-  if (!page.allowed) return <NotAllowed what="taking readings" />;
-  const { project } = page.access;
-  const units = unitSystemFor(page.user, project);
-  const systems = await loadAirflowView(project);
+  const screen = await loadAirflowScreen(params, "traverse.record");
+  if (!screen.allowed) return <NotAllowed what="taking readings" />;
+  const { units, systems } = screen;
 
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">

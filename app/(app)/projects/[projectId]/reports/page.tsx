@@ -1,15 +1,15 @@
 import type { Metadata } from "next";
 import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
-import { requireProjectPage } from "@/lib/auth/guards";
-import { loadAirflowView } from "@/lib/server/airflow-view";
+import { NotAllowed } from "@/components/ui/not-allowed";
+import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Reports" };
 
 export default async function ReportsPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const { projectId } = await params;
-  const { access } = await requireProjectPage(projectId, "report.download");
-  const systems = await loadAirflowView(access.project);
+  const screen = await loadAirflowScreen(params, "report.download");
+  if (!screen.allowed) return <NotAllowed what="downloading reports" />;
+  const { systems } = screen;
   const sections = systems.flatMap((s) => s.sections);
   const approved = sections.filter((s) => s.latest?.status === "approved").length;
   const waiting = sections.filter((s) => s.latest?.status === "submitted").length;

@@ -1,23 +1,19 @@
 import type { Metadata } from "next";
-import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
+import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
-import { requireProjectPage } from "@/lib/auth/guards";
-import { loadAirflowView } from "@/lib/server/airflow-view";
 import { formatQuantity } from "@/lib/units";
+import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Review" };
 
 const QUALITY_LABEL = { good: "Good plane", marginal: "Marginal plane", poor: "Poor plane" } as const;
 
 export default async function ReviewPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const { projectId } = await params;
-  const page = await requireProjectPage(projectId, "traverse.review");
-  if (!page.allowed) return <NotAllowed what="reviewing readings" />;
-  const { project } = page.access;
-  const units = unitSystemFor(page.user, project);
-  const systems = await loadAirflowView(project);
+  const screen = await loadAirflowScreen(params, "traverse.review");
+  if (!screen.allowed) return <NotAllowed what="reviewing readings" />;
+  const { units, systems } = screen;
   const queue = systems.flatMap(({ system, sections }) =>
     sections.filter((s) => s.latest?.status === "submitted").map((s) => ({ system, ...s, latest: s.latest! })),
   );

@@ -1,22 +1,18 @@
 import type { Metadata } from "next";
 import { BalancingAids } from "@/components/airflow/balancing-aids";
-import { ductSize, pct, unitSystemFor } from "@/components/airflow/format";
+import { ductSize, pct } from "@/components/airflow/format";
 import { Card } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge, Verdict } from "@/components/ui/status";
-import { requireProjectPage } from "@/lib/auth/guards";
-import { loadAirflowView } from "@/lib/server/airflow-view";
 import { displayUnit, formatQuantity } from "@/lib/units";
+import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Design vs measured" };
 
 export default async function DesignVsMeasuredPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const { projectId } = await params;
-  const page = await requireProjectPage(projectId, "design.edit");
-  if (!page.allowed) return <NotAllowed what="the design comparison" />;
-  const { project } = page.access;
-  const units = unitSystemFor(page.user, project);
-  const systems = await loadAirflowView(project);
+  const screen = await loadAirflowScreen(params, "design.edit");
+  if (!screen.allowed) return <NotAllowed what="the design comparison" />;
+  const { project, units, systems } = screen;
   const flow = (v: number) => formatQuantity(units, "flow", v, { withUnit: false });
   const flowUnit = displayUnit(units, "flow").symbol;
   const mass = (v: number) => formatQuantity(units, "massFlow", v, { withUnit: false });
