@@ -5,8 +5,19 @@ const nextConfig = {
   serverExternalPackages: ["@electric-sql/pglite", "@node-rs/argon2", "pg"],
   poweredByHeader: false,
   reactStrictMode: true,
-  // Never open the database at build time: every page that reads it is dynamic.
-  typedRoutes: false,
+  async headers() {
+    return [
+      {
+        source: "/:path*",
+        headers: [
+          { key: "X-Frame-Options", value: "DENY" },
+          { key: "X-Content-Type-Options", value: "nosniff" },
+          { key: "Referrer-Policy", value: "same-origin" },
+          { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=()" },
+        ],
+      },
+    ];
+  },
 };
 
 export default nextConfig;

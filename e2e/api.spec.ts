@@ -48,6 +48,12 @@ test("bad engine input gets 400 with the field at fault, signed-out callers 401"
   expect((await request.post("/api/v1/calc/layout", { data: { duct: { shape: "round", diameter_mm: 600 }, method: "equal-area" } })).status()).toBe(401);
 });
 
+test("responses forbid framing and content sniffing", async ({ request }) => {
+  const res = await request.get("/sign-in");
+  expect(res.headers()["x-frame-options"]).toBe("DENY");
+  expect(res.headers()["x-content-type-options"]).toBe("nosniff");
+});
+
 test("unknown API paths answer 404 in the API's error shape", async ({ request }) => {
   const res = await request.get("/api/v1/no-such-thing");
   expect(res.status()).toBe(404);
