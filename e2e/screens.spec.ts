@@ -46,3 +46,15 @@ test("the owner's reports screen shows readiness and the cautions every report c
   await expect(page.getByText("Readiness: 2 of 7 duct sections approved, 2 awaiting review, 3 not yet traversed.")).toBeVisible();
   await expect(page.getByRole("heading", { name: "Every report carries these cautions" })).toBeVisible();
 });
+
+test("every control a technician taps is at least 44 px tall", async ({ page }) => {
+  await openLibraryTab(page, "tech@example.test", "Field work");
+  const controls = page.locator("header a, header button, header label, nav a, main button");
+  const count = await controls.count();
+  expect(count).toBeGreaterThan(5);
+  for (let i = 0; i < count; i++) {
+    const box = await controls.nth(i).boundingBox();
+    if (!box) continue; // visually hidden
+    expect(box.height, `control ${i}: ${await controls.nth(i).innerText()}`).toBeGreaterThanOrEqual(44);
+  }
+});
