@@ -13,7 +13,6 @@ export default defineConfig({
   },
   test: {
     include: ["tests/**/*.test.ts"],
-    globalSetup: ["tests/support/postgres-global-setup.ts"],
     environment: "node",
     // Database code under test opens a throwaway in-memory PGlite with the real migrations.
     env: { AIRTALLY_DATA_DIR: "memory://" },

@@ -1,19 +1,22 @@
 import { eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabaseHandle, openDatabase } from "@/db/client";
 import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { getUserForSignIn } from "@/db/queries/users";
 import { seedDemo } from "@/db/seed";
 import * as s from "@/db/schema";
+import { startPostgres, type PostgresServer } from "../support/postgres-cluster";
 
-// The same schema, migrations and queries on a real PostgreSQL server (a throwaway cluster
-// started by tests/support/postgres-global-setup.ts).
-beforeAll(() => {
-  process.env.DATABASE_URL = inject("postgresUrl");
+// The same schema, migrations and queries on a real PostgreSQL server (a throwaway cluster).
+let server: PostgresServer;
+beforeAll(async () => {
+  server = await startPostgres();
+  process.env.DATABASE_URL = server.url;
 });
 afterAll(async () => {
   await (await getDatabaseHandle()).close();
+  server.stop();
 });
 
 describe("on a PostgreSQL server", () => {
@@ -25,7 +28,7 @@ describe("on a PostgreSQL server", () => {
   });
 
   it("applies migrations idempotently from a second connection", async () => {
-    const second = await openDatabase({ url: inject("postgresUrl") });
+    const second = await openDatabase({ url: server.url });
     const rows = await second.db.select().from(s.users);
     expect(rows).toHaveLength(5);
     await second.close();

@@ -1,19 +1,13 @@
 /**
- * Starts a throwaway PostgreSQL cluster for the test run (unless AIRTALLY_TEST_DATABASE_URL names
- * one) and hands its URL to the tests; stops and deletes it afterwards. No data of anyone's is touched.
+ * A throwaway PostgreSQL cluster for the database tests (unless AIRTALLY_TEST_DATABASE_URL names an
+ * empty database to use instead): started in a temporary folder on a free port, stopped and deleted
+ * afterwards. No data of anyone's is touched.
  */
 import { execFileSync, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
 import os from "node:os";
 import path from "node:path";
-import type { TestProject } from "vitest/node";
-
-declare module "vitest" {
-  export interface ProvidedContext {
-    postgresUrl: string;
-  }
-}
 
 function pgBinDir(): string {
   const debian = "/usr/lib/postgresql";
@@ -41,12 +35,14 @@ function freePort(): Promise<number> {
   });
 }
 
-export default async function setup(project: TestProject) {
+export interface PostgresServer {
+  url: string;
+  stop(): void;
+}
+
+export async function startPostgres(): Promise<PostgresServer> {
   const given = process.env.AIRTALLY_TEST_DATABASE_URL;
-  if (given) {
-    project.provide("postgresUrl", given);
-    return;
-  }
+  if (given) return { url: given, stop: () => undefined };
   const bin = pgBinDir();
   const asRoot = process.getuid?.() === 0;
   // initdb refuses to run as root: the cluster belongs to the postgres user, in a folder it can reach.
@@ -59,13 +55,14 @@ export default async function setup(project: TestProject) {
   run("initdb", ["-D", path.join(dir, "data"), "-U", "postgres", "--auth=trust", "-E", "UTF8", "--locale=C.UTF-8"]);
   run("pg_ctl", ["-D", path.join(dir, "data"), "-l", path.join(dir, "log"), "-o", `-c listen_addresses=127.0.0.1 -p ${port} -k ${dir} -c fsync=off`, "-w", "start"]);
   run("createdb", ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "airtally_test"]);
-  project.provide("postgresUrl", `postgres://postgres@127.0.0.1:${port}/airtally_test`);
-
-  return () => {
-    try {
-      run("pg_ctl", ["-D", path.join(dir, "data"), "-m", "fast", "-w", "stop"]);
-    } finally {
-      fs.rmSync(dir, { recursive: true, force: true });
-    }
+  return {
+    url: `postgres://postgres@127.0.0.1:${port}/airtally_test`,
+    stop: () => {
+      try {
+        run("pg_ctl", ["-D", path.join(dir, "data"), "-m", "fast", "-w", "stop"]);
+      } finally {
+        fs.rmSync(dir, { recursive: true, force: true });
+      }
+    },
   };
 }
