@@ -8,6 +8,8 @@ async function openLibraryTab(page: Page, email: string, tab: string) {
   await page.getByRole("link", { name: /Wrenfield Library/ }).click();
   await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: tab }).click();
   await expect(page.getByRole("link", { name: tab })).toHaveAttribute("aria-current", "page");
+  // Only the open tab is marked, not the overview whose path prefixes it.
+  await expect(page.getByRole("navigation", { name: "Project" }).locator('[aria-current="page"]')).toHaveCount(1);
 }
 
 test("the technician's field work shows the safety cautions, suggested layouts and where each section stands", async ({ page }) => {

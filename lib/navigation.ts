@@ -4,6 +4,8 @@ import { can, type Action, type Actor } from "@/lib/auth/policy";
 export interface NavItem {
   href: string;
   label: string;
+  /** Active only on its own path, not on the pages below it (the overview is the prefix of every tab). */
+  exact: boolean;
 }
 
 const PROJECT_NAV: { path: string; label: string; action: Action }[] = [
@@ -20,5 +22,6 @@ export function projectNav(projectId: string, actor: Actor, role: MemberRole | n
   return PROJECT_NAV.filter((item) => can(actor, role, item.action)).map((item) => ({
     href: `/projects/${projectId}${item.path}`,
     label: item.label,
+    exact: item.path === "",
   }));
 }

@@ -10,7 +10,7 @@ export function ProjectNav({ items }: { items: NavItem[] }) {
     <nav aria-label="Project" className="border-b border-line bg-paper-raised">
       <ul className="mx-auto flex max-w-7xl flex-wrap gap-1 px-gutter">
         {items.map((item) => {
-          const active = item.href === pathname || (item.label !== "Overview" && pathname.startsWith(item.href));
+          const active = item.href === pathname || (!item.exact && pathname.startsWith(`${item.href}/`));
           return (
             <li key={item.href}>
               <Link

@@ -1,6 +1,7 @@
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
+import { demoMode } from "@/db/client";
 
 export const SECRET_ENV = "AIRTALLY_SESSION_SECRET";
 const MIN_LENGTH = 32;
@@ -16,7 +17,7 @@ export class MissingSecretError extends Error {
 
 /** Demo and development runs may keep a generated secret beside their data; production must be given one. */
 export function mayGenerateSecret(): boolean {
-  return process.env.AIRTALLY_DEMO === "1" || process.env.NODE_ENV !== "production";
+  return demoMode() || process.env.NODE_ENV !== "production";
 }
 
 /**

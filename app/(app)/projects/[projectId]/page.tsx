@@ -26,9 +26,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
       .filter((s) => s.reduction?.ok && s.reduction.result.quality.verdict === "poor")
       .map((s) => `${s.section.tag}: traverse plane judged poor`),
     ...systems.flatMap((s) =>
-      s.junctions
-        .filter((j) => j.status === "checked" && !j.junction.pass)
-        .map((j) => `${j.parent.tag}: continuity ${pct(j.status === "checked" ? j.junction.imbalancePct : null, 1)} by mass`),
+      s.junctions.flatMap((j) => (j.status === "checked" && !j.junction.pass ? [`${j.parent.tag}: continuity ${pct(j.junction.imbalancePct, 1)} by mass`] : [])),
     ),
   ];
 
