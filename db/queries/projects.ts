@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { getDb } from "../client";
-import { airSystems, ductSections, projectMembers, projects, traverses, type MemberRole, type Project } from "../schema";
+import { airSystems, ductSections, projectMembers, projects, traverses, type MemberRole, type Project, type TraverseStatus } from "../schema";
 
 export interface ProjectAccess {
   project: Project;
@@ -30,7 +30,23 @@ export interface ProjectSummary {
   sectionCount: number;
   /** Sections whose latest traverse has been approved. */
   approvedSectionCount: number;
+  /** Sections whose latest traverse awaits review. */
   submittedTraverseCount: number;
+}
+
+/**
+ * Duct sections of the project whose newest traverse has this status: the same rule the screens use
+ * (lib/server/airflow-view.ts takes each section's newest traverse), so the list and the pages agree.
+ */
+function sectionsWhoseLatestTraverseIs(status: TraverseStatus) {
+  return sql<number>`(select count(*)::int from (
+    select distinct on (${traverses.sectionId}) ${traverses.status} as status
+    from ${traverses}
+    join ${ductSections} on ${ductSections.id} = ${traverses.sectionId}
+    join ${airSystems} on ${airSystems.id} = ${ductSections.systemId}
+    where ${airSystems.projectId} = ${projects.id}
+    order by ${traverses.sectionId}, ${traverses.createdAt} desc
+  ) latest where latest.status = ${status})`;
 }
 
 /**
@@ -49,8 +65,8 @@ export async function listProjectsForUser({ userId, isAdmin }: { userId: string;
       role: projectMembers.role,
       systemCount: sql<number>`(select count(*)::int from ${airSystems} where ${airSystems.projectId} = ${projects.id})`,
       sectionCount: sql<number>`(select count(*)::int from ${ductSections} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id})`,
-      approvedSectionCount: sql<number>`(select count(distinct ${traverses.sectionId})::int from ${traverses} join ${ductSections} on ${ductSections.id} = ${traverses.sectionId} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id} and ${traverses.status} = 'approved')`,
-      submittedTraverseCount: sql<number>`(select count(*)::int from ${traverses} join ${ductSections} on ${ductSections.id} = ${traverses.sectionId} join ${airSystems} on ${airSystems.id} = ${ductSections.systemId} where ${airSystems.projectId} = ${projects.id} and ${traverses.status} = 'submitted')`,
+      approvedSectionCount: sectionsWhoseLatestTraverseIs("approved"),
+      submittedTraverseCount: sectionsWhoseLatestTraverseIs("submitted"),
     })
     .from(projects);
   const rows = isAdmin

@@ -2,6 +2,7 @@ import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabaseHandle, getDb } from "@/db/client";
 import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow";
+import { listProjectsForUser } from "@/db/queries/projects";
 import { seedDemo } from "@/db/seed";
 import * as s from "@/db/schema";
 import { buildAirflowView, type SystemView } from "@/lib/server/airflow-view";
@@ -75,5 +76,23 @@ describe("design against measured for the demo project", () => {
     expect(fan.pressureFactor).toBeCloseTo(n ** 2, 9);
     expect(fan.powerFactor).toBeCloseTo(n ** 3, 9);
     expect(views.find((v) => v.system.tag === "EF-1")!.fan).toBeNull();
+  });
+
+  it("counts progress in the project list by each section's newest traverse, as the screens do", async () => {
+    const db = await getDb();
+    const [project] = await db.select().from(s.projects).where(eq(s.projects.siteName, "Wrenfield Community Library"));
+    const [tech] = await db.select().from(s.users).where(eq(s.users.email, "tech@example.test"));
+    const summary = async () => (await listProjectsForUser({ userId: tech!.id, isAdmin: false }))[0]!;
+    expect(await summary()).toMatchObject({ approvedSectionCount: 2, submittedTraverseCount: 2 });
+
+    // A re-traverse of the approved branch S1.1, returned by the reviewer, supersedes its approval.
+    const east = views.find((v) => v.system.tag === "AHU-1")!.sections.find((r) => r.section.tag === "S1.1")!.section;
+    await db.insert(s.traverses).values({ sectionId: east.id, method: "log-linear", lines: 2, pointsPerLine: 8, status: "returned", createdAt: new Date(Date.now() + 60_000) });
+
+    const [design, traverses] = await Promise.all([getProjectDesign({ projectId: project!.id }), listTraversesForProject({ projectId: project!.id })]);
+    const screenRows = buildAirflowView(project!, design, traverses).flatMap((v) => v.sections);
+    const onScreen = (status: string) => screenRows.filter((r) => r.latest?.status === status).length;
+    expect(onScreen("approved")).toBe(1);
+    expect(await summary()).toMatchObject({ approvedSectionCount: onScreen("approved"), submittedTraverseCount: onScreen("submitted") });
   });
 });
