@@ -6,7 +6,7 @@ import { drizzle as drizzlePg } from "drizzle-orm/node-postgres";
 import { Pool } from "pg";
 import * as schema from "./schema";
 import { migrateDatabase } from "./migrate";
-import { seedDemo } from "./seed";
+import { seedDemo } from "./seed/index";
 
 /**
  * The one place that opens the database. PGlite on a data directory by default

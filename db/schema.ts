@@ -4,6 +4,7 @@ import {
   bigserial,
   boolean,
   check,
+  date,
   doublePrecision,
   index,
   integer,
@@ -25,18 +26,46 @@ export const unitSystem = pgEnum("unit_system", ["IP", "SI"]);
 export const systemKind = pgEnum("system_kind", ["supply", "return", "exhaust", "outside_air"]);
 export const sectionKind = pgEnum("section_kind", ["trunk", "branch"]);
 export const ductShape = pgEnum("duct_shape", ["round", "rectangular"]);
-export const terminalKind = pgEnum("terminal_kind", ["supply", "return", "exhaust"]);
 export const traverseMethod = pgEnum("traverse_method", ["equal-area", "log-linear"]);
 export const readingsKind = pgEnum("readings_kind", ["velocity_pressure", "velocity_actual", "velocity_standard"]);
 export const traverseStatus = pgEnum("traverse_status", ["draft", "submitted", "approved", "returned"]);
 export const reviewDecision = pgEnum("review_decision", ["approved", "returned"]);
-export const readingPhase = pgEnum("reading_phase", ["as_found", "as_left"]);
+/** Which way the air goes through a terminal. */
+export const airService = pgEnum("air_service", ["supply", "return", "exhaust", "outside_air"]);
+/** Air outlets and inlets (diffuser, grille, register) and terminal units (VAV or constant-volume box). */
+export const terminalType = pgEnum("terminal_type", ["diffuser", "grille", "register", "vav_box", "constant_volume_box"]);
+export const terminalReadingPhase = pgEnum("terminal_reading_phase", ["initial", "final"]);
+export const terminalReadingMethod = pgEnum("terminal_reading_method", ["hood", "velocity_area", "traverse"]);
+/** The operating point a terminal was read at: outlets at their design setting, terminal units forced to a setpoint. */
+export const terminalSetpoint = pgEnum("terminal_setpoint", ["design", "maximum", "minimum", "heating"]);
+export const instrumentKind = pgEnum("instrument_kind", [
+  "manometer",
+  "pitot_tube",
+  "capture_hood",
+  "thermal_anemometer",
+  "vane_anemometer",
+  "tachometer",
+  "clamp_meter",
+  "thermo_hygrometer",
+  "barometer",
+]);
+/** Terminal units held at one setpoint for the readings (or left to their controls: "none"). */
+export const boxOverride = pgEnum("box_override", ["none", "maximum", "minimum", "mixed"]);
+export const filterState = pgEnum("filter_state", ["clean", "part_loaded", "loaded", "unknown"]);
 
 export type MemberRole = (typeof memberRole.enumValues)[number];
 export type UnitSystem = (typeof unitSystem.enumValues)[number];
 export type TraverseStatus = (typeof traverseStatus.enumValues)[number];
 export type TraverseMethod = (typeof traverseMethod.enumValues)[number];
 export type DuctShape = (typeof ductShape.enumValues)[number];
+export type AirService = (typeof airService.enumValues)[number];
+export type TerminalType = (typeof terminalType.enumValues)[number];
+export type TerminalReadingPhase = (typeof terminalReadingPhase.enumValues)[number];
+export type TerminalReadingMethod = (typeof terminalReadingMethod.enumValues)[number];
+export type TerminalSetpoint = (typeof terminalSetpoint.enumValues)[number];
+export type InstrumentKind = (typeof instrumentKind.enumValues)[number];
+export type BoxOverride = (typeof boxOverride.enumValues)[number];
+export type FilterState = (typeof filterState.enumValues)[number];
 
 const createdAt = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
 
@@ -64,15 +93,28 @@ export const projects = pgTable(
     altitudeM: doublePrecision("altitude_m").notNull().default(0),
     unitSystem: unitSystem("unit_system").notNull().default("SI"),
     standardDensityKgM3: doublePrecision("standard_density_kg_m3").notNull().default(1.204),
-    terminalTolerancePct: doublePrecision("terminal_tolerance_pct").notNull().default(10),
-    sectionTolerancePct: doublePrecision("section_tolerance_pct").notNull().default(10),
-    fanTolerancePct: doublePrecision("fan_tolerance_pct").notNull().default(5),
+    // Acceptance bands as % of design, below (minus) and above (plus); contract documents govern.
+    // Defaults are common practice: ±10 % for outlets, terminal units and sections, ±5 % for fans, −0/+10 % outside air.
+    fanToleranceMinusPct: doublePrecision("fan_tolerance_minus_pct").notNull().default(5),
+    fanTolerancePlusPct: doublePrecision("fan_tolerance_plus_pct").notNull().default(5),
+    sectionToleranceMinusPct: doublePrecision("section_tolerance_minus_pct").notNull().default(10),
+    sectionTolerancePlusPct: doublePrecision("section_tolerance_plus_pct").notNull().default(10),
+    outletToleranceMinusPct: doublePrecision("outlet_tolerance_minus_pct").notNull().default(10),
+    outletTolerancePlusPct: doublePrecision("outlet_tolerance_plus_pct").notNull().default(10),
+    terminalUnitToleranceMinusPct: doublePrecision("terminal_unit_tolerance_minus_pct").notNull().default(10),
+    terminalUnitTolerancePlusPct: doublePrecision("terminal_unit_tolerance_plus_pct").notNull().default(10),
+    outsideAirToleranceMinusPct: doublePrecision("outside_air_tolerance_minus_pct").notNull().default(0),
+    outsideAirTolerancePlusPct: doublePrecision("outside_air_tolerance_plus_pct").notNull().default(10),
     continuityTolerancePct: doublePrecision("continuity_tolerance_pct").notNull().default(10),
     createdAt: createdAt(),
   },
   (t) => [
     check("projects_density_range", sql`${t.standardDensityKgM3} between 0.5 and 2`),
     check("projects_altitude_range", sql`${t.altitudeM} between -500 and 5000`),
+    check(
+      "projects_tolerance_range",
+      sql`least(${t.fanToleranceMinusPct}, ${t.fanTolerancePlusPct}, ${t.sectionToleranceMinusPct}, ${t.sectionTolerancePlusPct}, ${t.outletToleranceMinusPct}, ${t.outletTolerancePlusPct}, ${t.terminalUnitToleranceMinusPct}, ${t.terminalUnitTolerancePlusPct}, ${t.outsideAirToleranceMinusPct}, ${t.outsideAirTolerancePlusPct}, ${t.continuityTolerancePct}) >= 0 and greatest(${t.fanToleranceMinusPct}, ${t.fanTolerancePlusPct}, ${t.sectionToleranceMinusPct}, ${t.sectionTolerancePlusPct}, ${t.outletToleranceMinusPct}, ${t.outletTolerancePlusPct}, ${t.terminalUnitToleranceMinusPct}, ${t.terminalUnitTolerancePlusPct}, ${t.outsideAirToleranceMinusPct}, ${t.outsideAirTolerancePlusPct}, ${t.continuityTolerancePct}) <= 100`,
+    ),
   ],
 );
 
@@ -105,6 +147,16 @@ export const airSystems = pgTable(
     designFlowM3S: doublePrecision("design_flow_m3_s").notNull(),
     designStaticPa: doublePrecision("design_static_pa"),
     fanSpeedRpm: doublePrecision("fan_speed_rpm"),
+    /** Minimum outside air the system must bring in (supply systems), at standard air. */
+    designOutsideAirM3S: doublePrecision("design_outside_air_m3_s"),
+    // Motor nameplate, for the fan-law aids and the report; the drive's limits are a qualified person's call.
+    motorPowerKw: doublePrecision("motor_power_kw"),
+    motorSpeedRpm: doublePrecision("motor_speed_rpm"),
+    motorFullLoadAmps: doublePrecision("motor_full_load_amps"),
+    motorVolts: doublePrecision("motor_volts"),
+    motorPhases: integer("motor_phases"),
+    motorServiceFactor: doublePrecision("motor_service_factor"),
+    hasVfd: boolean("has_vfd").notNull().default(false),
     location: text("location").notNull().default(""),
     createdAt: createdAt(),
   },
@@ -152,30 +204,107 @@ export const terminals = pgTable(
       .notNull()
       .references(() => ductSections.id, { onDelete: "cascade" }),
     tag: text("tag").notNull(),
-    kind: terminalKind("kind").notNull(),
     device: text("device").notNull().default(""),
     room: text("room").notNull().default(""),
     designFlowM3S: doublePrecision("design_flow_m3_s").notNull(),
     effectiveAreaM2: doublePrecision("effective_area_m2"),
+    /** Outlet or inlet (diffuser, grille, register) or terminal unit (VAV or constant-volume box). */
+    type: terminalType("type").notNull().default("diffuser"),
+    service: airService("service").notNull().default("supply"),
+    /** Neck size of an outlet, inlet size of a terminal unit (inside dimensions, mm). */
+    sizeShape: ductShape("size_shape"),
+    diameterMm: doublePrecision("diameter_mm"),
+    widthMm: doublePrecision("width_mm"),
+    heightMm: doublePrecision("height_mm"),
+    // Terminal units: designFlowM3S is the design maximum; these are the other scheduled setpoints.
+    designMinFlowM3S: doublePrecision("design_min_flow_m3_s"),
+    designHeatingFlowM3S: doublePrecision("design_heating_flow_m3_s"),
+    /** The box controller's flow factor (its velocity-pressure sensor's multiplier), as configured. */
+    controllerFlowFactor: doublePrecision("controller_flow_factor"),
     createdAt: createdAt(),
   },
-  (t) => [index("terminals_section_idx").on(t.sectionId)],
+  (t) => [
+    index("terminals_section_idx").on(t.sectionId),
+    uniqueIndex("terminals_section_tag_idx").on(t.sectionId, t.tag),
+  ],
 );
 
-export const terminalReadings = pgTable(
-  "terminal_readings",
+/**
+ * The organisation's instrument register, shared by every project: what a crew carries, with serial
+ * numbers and calibration dates. Ranges and accuracies are in SI for the instrument's kind
+ * (Pa for manometers, m/s for anemometers, m³/s for capture hoods, °C / % RH, Pa for barometers).
+ */
+export const instruments = pgTable(
+  "instruments",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    terminalId: uuid("terminal_id")
-      .notNull()
-      .references(() => terminals.id, { onDelete: "cascade" }),
-    phase: readingPhase("phase").notNull(),
-    flowM3S: doublePrecision("flow_m3_s").notNull(),
-    instrument: text("instrument").notNull().default(""),
-    takenBy: uuid("taken_by").references(() => users.id, { onDelete: "set null" }),
-    takenAt: timestamp("taken_at", { withTimezone: true }).notNull().defaultNow(),
+    kind: instrumentKind("kind").notNull(),
+    make: text("make").notNull().default(""),
+    model: text("model").notNull().default(""),
+    serial: text("serial").notNull(),
+    calibratedOn: date("calibrated_on", { mode: "string" }),
+    calibrationDueOn: date("calibration_due_on", { mode: "string" }),
+    rangeMin: doublePrecision("range_min"),
+    rangeMax: doublePrecision("range_max"),
+    /** Maker's accuracy as ± % of reading plus ± a floor in the kind's unit (a specification limit, not a standard uncertainty). */
+    accuracyPct: doublePrecision("accuracy_pct"),
+    accuracyFloor: doublePrecision("accuracy_floor"),
+    /** Pitot tubes: the calibration coefficient (1.0 for a standard pitot-static tube) and the head's outside diameter. */
+    probeCoefficient: doublePrecision("probe_coefficient"),
+    probeHeadDiameterMm: doublePrecision("probe_head_diameter_mm"),
+    /** Capture hoods: the maker's correction factor for the hood top in use, when one applies. */
+    hoodCorrectionFactor: doublePrecision("hood_correction_factor"),
+    notes: text("notes").notNull().default(""),
+    retiredAt: timestamp("retired_at", { withTimezone: true }),
+    createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
   },
-  (t) => [index("terminal_readings_terminal_idx").on(t.terminalId)],
+  (t) => [uniqueIndex("instruments_kind_serial_idx").on(t.kind, sql`lower(${t.serial})`)],
+);
+
+/**
+ * The conditions a system was running under while a set of readings was taken. Readings taken under
+ * different recorded conditions are not compared or summed without a warning.
+ */
+export const operatingConditions = pgTable(
+  "operating_conditions",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    systemId: uuid("system_id")
+      .notNull()
+      .references(() => airSystems.id, { onDelete: "cascade" }),
+    fanSpeedRpm: doublePrecision("fan_speed_rpm"),
+    vfdHz: doublePrecision("vfd_hz"),
+    boxes: boxOverride("boxes").notNull().default("none"),
+    /** Outside-air damper (economizer) position, % open; null when the system has none or it was not seen. */
+    outsideAirDamperPct: doublePrecision("outside_air_damper_pct"),
+    ductStaticSetpointPa: doublePrecision("duct_static_setpoint_pa"),
+    filterState: filterState("filter_state").notNull().default("unknown"),
+    notes: text("notes").notNull().default(""),
+    recordedBy: uuid("recorded_by").references(() => users.id, { onDelete: "set null" }),
+    recordedAt: timestamp("recorded_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("operating_conditions_system_idx").on(t.systemId, t.recordedAt)],
+);
+
+/** A system's terminal readings, submitted and reviewed together like a traverse. */
+export const terminalSets = pgTable(
+  "terminal_sets",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    systemId: uuid("system_id")
+      .notNull()
+      .references(() => airSystems.id, { onDelete: "cascade" }),
+    status: traverseStatus("status").notNull().default("draft"),
+    version: integer("version").notNull().default(1),
+    revision: integer("revision").notNull().default(1),
+    notes: text("notes").notNull().default(""),
+    submittedBy: uuid("submitted_by").references(() => users.id, { onDelete: "set null" }),
+    submittedAt: timestamp("submitted_at", { withTimezone: true }),
+    createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("terminal_sets_system_idx").on(t.systemId)],
 );
 
 /** A pitot or anemometer traverse across one duct section, with the air conditions at the plane. */
@@ -199,6 +328,15 @@ export const traverses = pgTable(
     barometricPa: doublePrecision("barometric_pa"),
     staticPa: doublePrecision("static_pa"),
     portOffsetMm: doublePrecision("port_offset_mm").notNull().default(0),
+    /** The manometer or anemometer the points were read with, the pitot tube, and the air instrument. */
+    instrumentId: uuid("instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    probeInstrumentId: uuid("probe_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    airInstrumentId: uuid("air_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    /** Why an instrument past its calibration due date was used; required before submission. */
+    overdueReason: text("overdue_reason").notNull().default(""),
+    conditionsId: uuid("conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
+    /** 1 for a section's first traverse; a re-traverse of the same section takes the next number. */
+    revision: integer("revision").notNull().default(1),
     status: traverseStatus("status").notNull().default("draft"),
     version: integer("version").notNull().default(1),
     notes: text("notes").notNull().default(""),
@@ -228,6 +366,53 @@ export const readings = pgTable(
     recordedAt: timestamp("recorded_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex("readings_position_idx").on(t.traverseId, t.line, t.point)],
+);
+
+/**
+ * One reading of an outlet, inlet or terminal unit: by capture hood, by velocity × effective area, or
+ * from a traverse of its duct. Re-readings after an adjustment are new rows; nothing is overwritten.
+ * Flows are m³/s: `flowM3S` at the air's actual density, `standardFlowM3S` referred to the project's
+ * standard density, which is what design airflows are scheduled at.
+ */
+export const terminalReadings = pgTable(
+  "terminal_readings",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    terminalId: uuid("terminal_id")
+      .notNull()
+      .references(() => terminals.id, { onDelete: "cascade" }),
+    setId: uuid("set_id")
+      .notNull()
+      .references(() => terminalSets.id, { onDelete: "cascade" }),
+    phase: terminalReadingPhase("phase").notNull(),
+    method: terminalReadingMethod("method").notNull(),
+    setpoint: terminalSetpoint("setpoint").notNull().default("design"),
+    /** Capture hood: the flow shown, the correction factor applied, and what the hood already corrected for. */
+    hoodFlowM3S: doublePrecision("hood_flow_m3_s"),
+    hoodCorrectionFactor: doublePrecision("hood_correction_factor"),
+    hoodDensityCorrected: boolean("hood_density_corrected"),
+    hoodBackPressureCompensated: boolean("hood_back_pressure_compensated"),
+    /** Velocity × effective area: the point velocities (m/s) and the effective area used (m²). */
+    velocitiesMS: jsonb("velocities_m_s").$type<number[]>(),
+    effectiveAreaM2: doublePrecision("effective_area_m2"),
+    /** A traverse of the terminal's own duct. */
+    traverseId: uuid("traverse_id").references(() => traverses.id, { onDelete: "set null" }),
+    /** Air temperature at the terminal, for the density correction. */
+    dryBulbC: doublePrecision("dry_bulb_c"),
+    flowM3S: doublePrecision("flow_m3_s").notNull(),
+    standardFlowM3S: doublePrecision("standard_flow_m3_s").notNull(),
+    /** Terminal units: the airflow the box controller displayed at the same moment. */
+    controllerFlowM3S: doublePrecision("controller_flow_m3_s"),
+    damperMarked: boolean("damper_marked").notNull().default(false),
+    conditionsId: uuid("conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
+    instrumentId: uuid("instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    overdueReason: text("overdue_reason").notNull().default(""),
+    notes: text("notes").notNull().default(""),
+    takenBy: uuid("taken_by").references(() => users.id, { onDelete: "set null" }),
+    takenAt: timestamp("taken_at", { withTimezone: true }).notNull().defaultNow(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("terminal_readings_terminal_idx").on(t.terminalId, t.takenAt), index("terminal_readings_set_idx").on(t.setId)],
 );
 
 /** A commissioning agent's decision on one version of a traverse. */
@@ -274,3 +459,7 @@ export type Terminal = typeof terminals.$inferSelect;
 export type Traverse = typeof traverses.$inferSelect;
 export type Reading = typeof readings.$inferSelect;
 export type Review = typeof reviews.$inferSelect;
+export type Instrument = typeof instruments.$inferSelect;
+export type OperatingConditions = typeof operatingConditions.$inferSelect;
+export type TerminalSet = typeof terminalSets.$inferSelect;
+export type TerminalReading = typeof terminalReadings.$inferSelect;

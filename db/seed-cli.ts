@@ -1,6 +1,6 @@
 /** `npm run db:seed`: adds the demo project unless it is already there. Refuses while a server holds the data directory. */
 import { defaultDataDir, openDatabase } from "./client";
-import { seedDemo } from "./seed";
+import { seedDemo } from "./seed/index";
 
 async function main() {
   const handle = await openDatabase({ url: process.env.DATABASE_URL || undefined, dataDir: defaultDataDir() });

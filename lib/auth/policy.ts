@@ -6,7 +6,9 @@ import type { MemberRole } from "@/db/schema";
  */
 export const ACTIONS = [
   "project.view",
+  "project.edit",
   "traverse.record",
+  "terminal.record",
   "traverse.submit",
   "traverse.review",
   "design.view",
@@ -22,7 +24,9 @@ const ALL: readonly MemberRole[] = ["technician", "commissioning_agent", "engine
 
 export const POLICY: Record<Action, readonly MemberRole[]> = {
   "project.view": ALL,
+  "project.edit": ["engineer"],
   "traverse.record": ["technician"],
+  "terminal.record": ["technician"],
   "traverse.submit": ["technician"],
   "traverse.review": ["commissioning_agent"],
   "design.view": ["technician", "commissioning_agent", "engineer"],
@@ -33,8 +37,8 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "members.manage": [],
 };
 
-/** Site-wide administrators manage every project's people and settings, and may look at everything, but take no readings and sign nothing. */
-const ADMIN_ACTIONS: ReadonlySet<Action> = new Set(["project.view", "design.view", "report.download", "members.manage"]);
+/** Site-wide administrators set projects up (settings, design, people) and may look at everything, but take no readings and sign nothing. */
+const ADMIN_ACTIONS: ReadonlySet<Action> = new Set(["project.view", "project.edit", "design.view", "design.edit", "report.download", "members.manage"]);
 
 export interface Actor {
   isAdmin: boolean;

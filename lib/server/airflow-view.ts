@@ -1,7 +1,8 @@
 import "server-only";
 import { getProjectDesign, listTraversesForProject, type ProjectDesign, type StoredTraverse } from "@/db/queries/airflow";
 import type { AirSystem, DuctSection, Project } from "@/db/schema";
-import { fanSpeedForFlow, proportionalBalance, type BranchPlan } from "@/lib/airflow/balancing";
+import { fanSpeedForFlow, proportionalBalance, withinTolerance, type BranchPlan } from "@/lib/airflow/balancing";
+import { toleranceFor } from "@/lib/airflow/tolerance";
 import { checkContinuity, type Junction } from "@/lib/airflow/network";
 import { reduceTraverse, type TraverseResult } from "@/lib/airflow/traverse";
 import type { Duct } from "@/lib/airflow/layout";
@@ -109,7 +110,7 @@ export function buildAirflowView(project: Project, design: ProjectDesign, traver
         latest,
         reduction,
         pctOfDesign: pct,
-        withinTolerance: pct === null ? null : Math.abs(pct - 100) <= project.sectionTolerancePct,
+        withinTolerance: reduction?.ok ? withinTolerance(reduction.result.standardFlowM3S, section.designFlowM3S, toleranceFor(project, "section")) : null,
       };
       views.push(view);
       byId.set(section.id, view);
@@ -157,7 +158,7 @@ function branchPlans(sections: DuctSection[], children: Map<string | null, DuctS
     const kids = children.get(parent.id) ?? [];
     const flows = kids.map((k) => measuredStandardFlow(byId.get(k.id)));
     if (kids.length < 2 || flows.some((f) => f === null)) continue;
-    const tolerance = { minusPct: project.sectionTolerancePct, plusPct: project.sectionTolerancePct };
+    const tolerance = toleranceFor(project, "section");
     const plan = proportionalBalance(
       kids.map((k, i) => ({ id: k.tag, branch: parent.tag, designM3S: k.designFlowM3S, measuredM3S: flows[i]! })),
       { tolerance },

@@ -20,14 +20,23 @@ describe("role policy", () => {
     expect(can(member, "technician", "traverse.review")).toBe(false);
     expect(can(member, "engineer", "deviation.accept")).toBe(true);
     expect(can(member, "owner", "design.view")).toBe(false);
+    expect(can(member, "technician", "terminal.record")).toBe(true);
+    expect(can(member, "owner", "terminal.record")).toBe(false);
+    expect(can(member, "engineer", "project.edit")).toBe(true);
+    expect(can(member, "engineer", "design.edit")).toBe(true);
+    expect(can(member, "technician", "design.edit")).toBe(false);
   });
 
-  it("gives non-members nothing and site administrators only oversight", () => {
+  it("gives non-members nothing and site administrators set-up and oversight only", () => {
     for (const action of ACTIONS) expect(can(member, null, action)).toBe(false);
     expect(can(admin, null, "members.manage")).toBe(true);
     expect(can(admin, null, "project.view")).toBe(true);
     expect(can(admin, null, "traverse.record")).toBe(false);
     expect(can(admin, null, "traverse.review")).toBe(false);
+    expect(can(admin, null, "terminal.record")).toBe(false);
+    // Site administrators set projects up (settings and design), as engineers do.
+    expect(can(admin, null, "project.edit")).toBe(true);
+    expect(can(admin, null, "design.edit")).toBe(true);
     expect(POLICY["members.manage"]).toEqual([]);
   });
 
@@ -37,6 +46,6 @@ describe("role policy", () => {
     expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports"]);
     expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports"]);
     expect(labels("owner")).toEqual(["Overview", "Reports"]);
-    expect(labels(null, admin)).toEqual(["Overview", "Reports", "Members"]);
+    expect(labels(null, admin)).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
   });
 });

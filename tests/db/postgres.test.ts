@@ -4,7 +4,7 @@ import { getDatabaseHandle, openDatabase } from "@/db/client";
 import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { getUserForSignIn } from "@/db/queries/users";
-import { seedDemo } from "@/db/seed";
+import { seedDemo } from "@/db/seed/index";
 import * as s from "@/db/schema";
 import { startPostgres, type PostgresServer } from "../support/postgres-cluster";
 

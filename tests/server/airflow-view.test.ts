@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabaseHandle, getDb } from "@/db/client";
 import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow";
 import { listProjectsForUser } from "@/db/queries/projects";
-import { seedDemo } from "@/db/seed";
+import { seedDemo } from "@/db/seed/index";
 import * as s from "@/db/schema";
 import { buildAirflowView, type SystemView } from "@/lib/server/airflow-view";
 

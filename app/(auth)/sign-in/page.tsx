@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { Wordmark } from "@/components/layout/wordmark";
 import { demoMode } from "@/db/client";
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/db/seed";
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/db/seed/index";
 import { currentUser } from "@/lib/auth/guards";
 import { ROLE_LABELS } from "@/lib/auth/policy";
 

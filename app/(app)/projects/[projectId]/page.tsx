@@ -1,3 +1,4 @@
+import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { ductSize, pct } from "@/components/airflow/format";
@@ -21,7 +22,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
   const exceptions = [
     ...sections
       .filter((s) => s.withinTolerance === false)
-      .map((s) => `${s.section.tag}: ${pct(s.pctOfDesign)} of design (allowed ±${project.sectionTolerancePct} %)`),
+      .map((s) => `${s.section.tag}: ${pct(s.pctOfDesign)} of design (allowed ${formatTolerance(toleranceFor(project, "section"))})`),
     ...sections
       .filter((s) => s.reduction?.ok && s.reduction.result.quality.verdict === "poor")
       .map((s) => `${s.section.tag}: traverse plane judged poor`),

@@ -1,3 +1,4 @@
+import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
 import type { Metadata } from "next";
 import { Card } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
@@ -50,11 +51,11 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
           <dt className="text-ink-muted">Standard air</dt>
           <dd className="num">{project.standardDensityKgM3} kg/m³</dd>
           <dt className="text-ink-muted">Terminals</dt>
-          <dd className="num">±{project.terminalTolerancePct} % of design</dd>
+          <dd className="num">{formatTolerance(toleranceFor(project, "outlet"))} of design</dd>
           <dt className="text-ink-muted">Duct sections</dt>
-          <dd className="num">±{project.sectionTolerancePct} % of design</dd>
+          <dd className="num">{formatTolerance(toleranceFor(project, "section"))} of design</dd>
           <dt className="text-ink-muted">Fans</dt>
-          <dd className="num">±{project.fanTolerancePct} % of design</dd>
+          <dd className="num">{formatTolerance(toleranceFor(project, "fan"))} of design</dd>
           <dt className="text-ink-muted">Continuity</dt>
           <dd className="num">±{project.continuityTolerancePct} % by mass</dd>
         </dl>

@@ -1,3 +1,4 @@
+import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
 import type { Metadata } from "next";
 import { BalancingAids } from "@/components/airflow/balancing-aids";
 import { ductSize, pct } from "@/components/airflow/format";
@@ -22,7 +23,7 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <p className="text-ink-soft">
         Design airflow is compared with measured flow at standard air ({project.standardDensityKgM3} kg/m³). Continuity is checked by mass at every
-        junction: volumes add only where the air has the same density. Tolerances: sections ±{project.sectionTolerancePct} %, junctions ±
+        junction: volumes add only where the air has the same density. Tolerances: sections {formatTolerance(toleranceFor(project, "section"))}, junctions ±
         {project.continuityTolerancePct} %.
       </p>
       {systems.map(({ system, sections, junctions, branchPlans, fan }) => (

@@ -1,21 +1,5 @@
-import { eq } from "drizzle-orm";
-import { hashPassword } from "@/lib/auth/password";
-import type { Database } from "./client";
-import * as s from "./schema";
-
-/**
- * The demo scenario: an invented public library with two air systems, and an invented clinic
- * that only some demo users belong to. Every name, person and reading here is made up.
- */
-export const DEMO_PASSWORD = "airtally-demo";
-
-export const DEMO_ACCOUNTS = [
-  { email: "tech@example.test", name: "Tomasz Reyes", role: "technician", isAdmin: false },
-  { email: "cx@example.test", name: "Ines Karlsson", role: "commissioning_agent", isAdmin: false },
-  { email: "engineer@example.test", name: "Dara Okafor", role: "engineer", isAdmin: false },
-  { email: "owner@example.test", name: "Maren Holt", role: "owner", isAdmin: false },
-  { email: "admin@example.test", name: "Sol Whitcombe", role: null, isAdmin: true },
-] as const satisfies readonly { email: string; name: string; role: s.MemberRole | null; isAdmin: boolean }[];
+import * as s from "../schema";
+import type { Tx } from "./index";
 
 /**
  * Velocity pressures (Pa) of the demo traverses, line by line, point by point. Invented readings
@@ -54,68 +38,7 @@ const DEMO_TRAVERSES = {
   ],
 } as const;
 
-type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
-
-/** Seeds the demo data once; a second call finds the demo accounts and does nothing. */
-export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
-  const existing = await db.select({ id: s.users.id }).from(s.users).where(eq(s.users.email, DEMO_ACCOUNTS[0].email));
-  if (existing.length > 0) return { seeded: false };
-
-  const passwordHash = await hashPassword(DEMO_PASSWORD);
-  await db.transaction(async (tx) => {
-    const users = await tx
-      .insert(s.users)
-      .values(DEMO_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, passwordHash, isAdmin: a.isAdmin })))
-      .returning();
-    const userId = (email: string) => users.find((u) => u.email === email)!.id;
-
-    const [library] = await tx
-      .insert(s.projects)
-      .values({
-        name: "Wrenfield Library — air balance",
-        siteName: "Wrenfield Community Library",
-        address: "14 Aldous Lane, Wrenfield",
-        altitudeM: 210,
-        unitSystem: "SI",
-      })
-      .returning();
-    const [clinic] = await tx
-      .insert(s.projects)
-      .values({
-        name: "Marlow Quay Clinic — fit-out",
-        siteName: "Marlow Quay Clinic",
-        address: "2 Quayside Row, Marlow Quay",
-        altitudeM: 35,
-        unitSystem: "IP",
-        standardDensityKgM3: 1.2014,
-      })
-      .returning();
-
-    await tx.insert(s.projectMembers).values([
-      ...DEMO_ACCOUNTS.filter((a) => a.role !== null).map((a) => ({
-        projectId: library!.id,
-        userId: userId(a.email),
-        role: a.role!,
-      })),
-      { projectId: clinic!.id, userId: userId("engineer@example.test"), role: "engineer" as const },
-    ]);
-
-    await seedLibrary(tx, library!.id, userId("tech@example.test"), userId("cx@example.test"));
-    await seedClinic(tx, clinic!.id);
-
-    await tx.insert(s.auditLog).values({
-      userId: userId("admin@example.test"),
-      projectId: library!.id,
-      action: "demo.seeded",
-      entityType: "project",
-      entityId: library!.id,
-      detail: { note: "Invented demo scenario" },
-    });
-  });
-  return { seeded: true };
-}
-
-async function seedLibrary(tx: Tx, projectId: string, technicianId: string, reviewerId: string) {
+export async function seedLibrary(tx: Tx, projectId: string, technicianId: string, reviewerId: string) {
   const [ahu, ef] = await tx
     .insert(s.airSystems)
     .values([
@@ -178,10 +101,11 @@ async function seedLibrary(tx: Tx, projectId: string, technicianId: string, revi
     ])
     .returning();
 
-  const terminal = (sectionId: string, tag: string, kind: "supply" | "exhaust", room: string, designFlowM3S: number, device: string) => ({
+  const terminal = (sectionId: string, tag: string, service: "supply" | "exhaust", room: string, designFlowM3S: number, device: string) => ({
     sectionId,
     tag,
-    kind,
+    service,
+    type: service === "supply" ? ("diffuser" as const) : ("grille" as const),
     room,
     designFlowM3S,
     device,
@@ -242,21 +166,4 @@ async function seedLibrary(tx: Tx, projectId: string, technicianId: string, revi
       });
     }
   }
-}
-
-async function seedClinic(tx: Tx, projectId: string) {
-  const [rtu] = await tx
-    .insert(s.airSystems)
-    .values({ projectId, tag: "RTU-2", name: "Consulting suites supply", kind: "supply", designFlowM3S: 1.2, location: "Roof" })
-    .returning();
-  await tx.insert(s.ductSections).values({
-    systemId: rtu!.id,
-    tag: "C1",
-    kind: "trunk",
-    shape: "rectangular",
-    widthMm: 700,
-    heightMm: 400,
-    designFlowM3S: 1.2,
-    location: "Corridor ceiling, level 1",
-  });
 }

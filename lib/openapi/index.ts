@@ -1,0 +1,9 @@
+import { buildOpenApiDocument, type Operation } from "./registry";
+import { coreOperations } from "./operations/core";
+
+/** Every documented operation; each area adds its own list here. */
+export const OPERATIONS: readonly Operation[] = [...coreOperations];
+
+export function openApiDocument() {
+  return buildOpenApiDocument(OPERATIONS, { version: "1" });
+}
