@@ -10,7 +10,7 @@ const ROLES = [
   { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports"] },
   { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Design vs measured", "Reports"] },
   { email: "owner@example.test", role: "Owner", tabs: ["Overview", "Reports"] },
-  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Reports", "Members"] },
+  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Design vs measured", "Reports", "Members"] },
 ];
 const ALL_TABS = ["Overview", "Field work", "Review", "Design vs measured", "Reports", "Members"];
 
