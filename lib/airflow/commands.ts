@@ -13,7 +13,7 @@ import {
   type LayoutInputJson,
   type TraverseInputJson,
 } from "@/lib/validation/calc";
-import { capFieldErrors, EngineInputError, MORE_FIELDS_KEY } from "./errors";
+import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS, MORE_FIELDS_KEY } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
 import { checkContinuity } from "./network";
 import { reduceTraverse, type ReadingsKind } from "./traverse";
@@ -65,7 +65,7 @@ function userMessage(issue: ZodError["issues"][number], input: unknown): string 
 /** Field errors keyed by dotted path; an unknown key is reported at its own path. At most MAX_FIELD_ERRORS, then a count. */
 function fieldErrors(error: ZodError, input: unknown): { fields: Record<string, string>; total: number } {
   const fields: Record<string, string> = {};
-  let count = 0;
+  const seen = new Set<string>();
   for (const issue of error.issues) {
     const paths =
       issue.code === "unrecognized_keys"
@@ -78,12 +78,12 @@ function fieldErrors(error: ZodError, input: unknown): { fields: Record<string, 
           }))
         : [{ path: issuePath(issue.path), message: null }];
     for (const { path, message } of paths) {
-      if (path in fields) continue;
-      count++;
-      if (count <= 1000) fields[path] = message ?? userMessage(issue, input);
+      if (seen.has(path)) continue;
+      seen.add(path);
+      if (seen.size <= MAX_FIELD_ERRORS) fields[path] = message ?? userMessage(issue, input);
     }
   }
-  return { fields: capFieldErrors(fields, count), total: count };
+  return { fields: capFieldErrors(fields, seen.size), total: seen.size };
 }
 
 function refuse(command: CalcCommand, fields: Record<string, string>, total?: number): Result<never> {

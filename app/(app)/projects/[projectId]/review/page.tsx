@@ -3,6 +3,7 @@ import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
+import { formatExpandedUncertainty } from "@/lib/airflow/uncertainty";
 import { formatQuantity } from "@/lib/units";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
@@ -48,7 +49,13 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
                 <dt className="text-ink-muted">Air density</dt>
                 <dd>{formatQuantity(units, "density", item.reduction.result.densityKgM3)}</dd>
                 <dt className="text-ink-muted">Uncertainty</dt>
-                <dd>± {pct(100 * item.reduction.result.uncertainty.combined, 1)} of flow</dd>
+                <dd>
+                  {formatExpandedUncertainty(item.reduction.result.uncertainty.standard.expanded)} on standard flow
+                  <span className="block text-sm text-ink-soft">
+                    actual flow {formatExpandedUncertainty(item.reduction.result.uncertainty.actual.expanded)}; mass flow{" "}
+                    {formatExpandedUncertainty(item.reduction.result.uncertainty.mass.expanded)}
+                  </span>
+                </dd>
               </dl>
               <div>
                 <p className="font-semibold">{QUALITY_LABEL[item.reduction.result.quality.verdict]}</p>
