@@ -159,11 +159,15 @@ describe("every bad-input class, in process", () => {
   });
 });
 
-/** The output of a succeeding command; fails the test if it failed. */
-function outputOf(command: string, input: unknown): Record<string, any> {
+/** Loose JSON, for reading a command's output in assertions (the shape is what the tests check). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+type Json = any;
+
+/** The output of a succeeding command (through JSON, as the CLI and API give it); fails the test if it failed. */
+function outputOf(command: string, input: unknown): Json {
   const r = runCalcCommand(command, input);
   if (!r.ok) throw new Error(`expected ${command} to succeed: ${JSON.stringify(r.error)}`);
-  return r.value as Record<string, any>;
+  return JSON.parse(JSON.stringify(r.value)) as Json;
 }
 
 describe("traverse output added in the second pass", () => {
@@ -302,9 +306,9 @@ describe("no library default message reaches a user", () => {
   }
   function withValue(base: unknown, path: (string | number)[], value: unknown): unknown {
     if (path.length === 0) return value;
-    const copy: any = Array.isArray(base) ? [...base] : { ...(base as object) };
-    const [head, ...rest] = path;
-    copy[head as any] = withValue(copy[head as any], rest, value);
+    const copy = (Array.isArray(base) ? [...base] : { ...(base as object) }) as Record<string | number, unknown>;
+    const [head = "", ...rest] = path;
+    copy[head] = withValue(copy[head], rest, value);
     return copy;
   }
 
