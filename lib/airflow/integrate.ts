@@ -219,8 +219,46 @@ const REFERENCE_PROFILE_N = 7;
  * as fractions of the side, exact mean (n/(n+1))². Used as the layout term of the uncertainty.
  */
 export function powerLawLayoutError(layout: Layout, read?: readonly (readonly boolean[])[]): number {
+  return layoutErrorOnDevelopedProfile(layout, developedProfileGrid(layout), read);
+}
+
+/**
+ * developedProfile at every point's read position, line by line. The layouts' structure is used to
+ * take few powers: on a round duct the read positions repeat from diameter to diameter, and on a
+ * rectangular duct the product law factors into one term per line and one per point.
+ */
+export function developedProfileGrid(layout: Layout): number[][] {
+  const { duct } = layout;
   const n = REFERENCE_PROFILE_N;
-  const values = layout.lines.map((line, k) => line.points.map((p, i) => (read && read[k]?.[i] === false ? null : developedProfile(layout.duct, p.readXM, p.readYM))));
+  if (duct.shape === "round") {
+    const cache = new Map<number, number>();
+    return layout.lines.map((line) =>
+      line.points.map((p) => {
+        let v = cache.get(p.readPositionM);
+        if (v === undefined) {
+          v = developedProfile(duct, p.readXM, p.readYM);
+          cache.set(p.readPositionM, v);
+        }
+        return v;
+      }),
+    );
+  }
+  const side = (c: number, span: number) => Math.max(0, (2 * Math.min(c, span - c)) / span) ** (1 / n);
+  const down = (layout.lines[0]?.points ?? []).map((p) => side(p.readYM, duct.heightM));
+  return layout.lines.map((line) => {
+    const across = side(line.points[0]?.readXM ?? 0, duct.widthM);
+    return line.points.map((_, i) => across * (down[i] ?? 0));
+  });
+}
+
+/**
+ * powerLawLayoutError from the developed profile already evaluated at every point's read position
+ * (`profile[line][point]`, as developedProfile gives it), so a caller that needs those values too
+ * computes them once.
+ */
+export function layoutErrorOnDevelopedProfile(layout: Layout, profile: readonly (readonly number[])[], read?: readonly (readonly boolean[])[]): number {
+  const n = REFERENCE_PROFILE_N;
+  const values = read ? profile.map((row, k) => row.map((v, i) => (read[k]?.[i] === false ? null : v))) : profile;
   const exact = layout.duct.shape === "round" ? (2 * n * n) / ((n + 1) * (2 * n + 1)) : (n / (n + 1)) ** 2;
   return planeMean(layout, values).mean / exact - 1;
 }

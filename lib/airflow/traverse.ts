@@ -6,7 +6,7 @@
 import { airState, type AirConditions, type AirState } from "./air";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { EngineInputError } from "./errors";
-import { developedProfile, planeMean, powerLawLayoutError, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
+import { developedProfileGrid, layoutErrorOnDevelopedProfile, planeMean, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
 import { buildLayout, ductAreaM2, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest } from "./layout";
 import { assessPlane, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
 import {
@@ -267,19 +267,17 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   if (meanVelocityMS > 0 && reynolds < LAMINAR_REYNOLDS) warnings.push(`Reynolds number ${Math.round(reynolds)} is under ${LAMINAR_REYNOLDS}: the flow may be laminar, and the layouts assume turbulent flow.`);
   if (quality.verdict !== "good") warnings.push(`Plane quality is ${quality.verdict}: ${quality.reasons.join(" ")}`);
 
-  const mask = layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null));
-  const layoutPoints = layout.lines.flatMap((l) => l.points);
-  const developed = read.map((p) => {
-    const lp = layoutPoints[p.line * perLine + p.point];
-    return lp ? developedProfile(layout.duct, lp.readXM, lp.readYM) : 1;
-  });
+  // The developed reference profile at every read position serves both the layout term and the sampling term.
+  const profile = developedProfileGrid(layout);
+  const mask = missing > 0 ? layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null)) : undefined;
+  const developed = read.map((p) => profile[p.line]?.[p.point] ?? 1);
   const sampling = samplingUncertainty(readVelocities, developed, straightRunClass(input));
   const common = {
     duct: input.duct,
     accuracy,
     readingRelative: kind === "velocity_pressure" ? pressureReadingRelativeUncertainty(pvs, accuracy) : velocityReadingRelativeUncertainty(read.map((p) => p.reading ?? 0), accuracy),
     densityRelative: densityRelativeUncertainty(input.air, accuracy),
-    layoutError: powerLawLayoutError(layout, mask),
+    layoutError: layoutErrorOnDevelopedProfile(layout, profile, mask),
     pointCount: read.length,
     samplingRelative: sampling.relative,
   };

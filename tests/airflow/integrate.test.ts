@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { fillGaps, planeMean, powerLawLayoutError, standardGridMean, tributaryAreaMean } from "@/lib/airflow/integrate";
+import { developedProfile, developedProfileGrid, fillGaps, planeMean, powerLawLayoutError, standardGridMean, tributaryAreaMean } from "@/lib/airflow/integrate";
 import { buildLayout, type Duct, type Layout, type LayoutMethod, type LayoutPoint } from "@/lib/airflow/layout";
 
 // Large ducts so no tabulated point is moved by the wall minimum.
@@ -100,6 +100,20 @@ describe("1/7 power law: each layout's error matches the published analysis (air
   ] as const)("rectangular %s %s per side: %s % (±%s)", (method, n, expectedPct, tol) => {
     const errPct = (standardGridMean(rectProfile(rect(method, n), rectPower)) / RECT_POWER_MEAN - 1) * 100;
     expect(Math.abs(errPct - expectedPct)).toBeLessThanOrEqual(tol);
+  });
+
+  it("the profile grid (few powers, by the layouts' structure) equals the profile point by point, also where the probe cannot reach", () => {
+    const layouts = [
+      round("log-linear", 10),
+      rect("log-linear", 7),
+      rect("equal-area", 6),
+      buildLayout({ duct: { shape: "round", diameterM: 0.15 }, method: "log-linear", pointsPerLine: 10, lines: 3 }),
+      buildLayout({ duct: { shape: "rectangular", widthM: 0.06, heightM: 0.3 }, method: "log-linear", pointsPerLine: 5, lines: 7 }),
+    ];
+    for (const layout of layouts) {
+      const grid = developedProfileGrid(layout);
+      layout.lines.forEach((line, k) => line.points.forEach((p, i) => expect(grid[k]?.[i]).toBeCloseTo(developedProfile(layout.duct, p.readXM, p.readYM), 12)));
+    }
   });
 
   it("powerLawLayoutError reports the same errors the test derives", () => {
