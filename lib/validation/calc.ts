@@ -72,10 +72,14 @@ const objectOf = (what: string) => ({
 /** Probe head outside diameter, mm: judges which points near a wall the probe can reach (default 8 mm, common practice). */
 const headDiameterSchema = ranged(1, 50, "mm (outside diameter of the probe head)");
 
-/** Layout input's probe: only the head size matters to a layout. */
-export const layoutProbeSchema = z.strictObject({ head_diameter_mm: headDiameterSchema.optional() }, objectOf("head_diameter_mm"));
+/** The probe: its coefficient C (1.0 for a standard pitot-static tube, common practice) and head size. */
+export const probeSchema = z.strictObject(
+  { coefficient: ranged(0.5, 1.2, "").optional(), head_diameter_mm: headDiameterSchema.optional() },
+  objectOf("coefficient and/or head_diameter_mm"),
+);
 
-export const layoutInputSchema = z.strictObject({ ...layoutFields, probe: layoutProbeSchema.optional() }, topLevel("layout")).superRefine((input, ctx) => {
+// A layout uses only the head size; the same probe object as a traverse's is accepted.
+export const layoutInputSchema = z.strictObject({ ...layoutFields, probe: probeSchema.optional() }, topLevel("layout")).superRefine((input, ctx) => {
   const problem = layoutCountProblem(input.duct.shape, input.method, { lines: input.lines, pointsPerLine: input.points_per_line });
   if (problem) ctx.addIssue({ code: "custom", path: [problem.field], message: problem.message });
 });
@@ -163,7 +167,7 @@ export const traverseInputSchema = z
   .strictObject({
     ...layoutFields,
     air: airSchema,
-    probe: z.strictObject({ coefficient: ranged(0.5, 1.2, "").optional(), head_diameter_mm: headDiameterSchema.optional() }, objectOf("coefficient and/or head_diameter_mm")).optional(),
+    probe: probeSchema.optional(),
     standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³").optional(),
     readings_kind: readingsKindSchema.optional(),
     instrument: instrumentSchema.optional(),
