@@ -16,7 +16,7 @@ import {
 import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS, MORE_FIELDS_KEY } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
 import { checkContinuity } from "./network";
-import { reduceTraverse, type ReadingsKind } from "./traverse";
+import { reduceTraverse, type ReadingsKind, type TraversePoint } from "./traverse";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { formatExpandedUncertainty, type FlowUncertainty, type UncertaintyTerms } from "./uncertainty";
 
@@ -153,6 +153,28 @@ function runLayout(input: unknown): Result<unknown> {
   return ok(layoutJson(buildLayout(layoutRequest(parsed.data))));
 }
 
+/** One traverse point as JSON; flags appear only when set (assigned, not spread: this runs per point). */
+function pointJson(p: TraversePoint) {
+  const out: Record<string, unknown> = {
+    line: p.line,
+    point: p.point,
+    x_mm: mm01(p.xM),
+    y_mm: mm01(p.yM),
+    depth_mm: mm01(p.depthM),
+    position_mm: mm01(p.positionM),
+    read_position_mm: mm01(p.readPositionM),
+  };
+  if (p.beyondProbeReach) out.beyond_probe_reach = true;
+  out.reading = p.reading;
+  out.velocity_pressure_pa = p.velocityPressurePa;
+  out.velocity_m_s = p.velocityMS;
+  if (p.filledFrom !== null) {
+    out.filled_from = p.filledFrom;
+    out.filled_velocity_m_s = p.filledVelocityMS;
+  }
+  return out;
+}
+
 function runTraverse(input: unknown): Result<unknown> {
   const sizes = calcInputSizeProblems("traverse", input);
   if (sizes) return refuse("traverse", sizes);
@@ -230,20 +252,7 @@ function runTraverse(input: unknown): Result<unknown> {
       viscosity_pa_s: r.air.viscosityPaS,
     },
     probe: { coefficient: d.probe?.coefficient ?? 1, head_diameter_mm: mm01(r.layout.probeHeadDiameterM), reach_mm: mm01(r.layout.probeReachM) },
-    points: r.points.map((p) => ({
-      line: p.line,
-      point: p.point,
-      x_mm: mm01(p.xM),
-      y_mm: mm01(p.yM),
-      depth_mm: mm01(p.depthM),
-      position_mm: mm01(p.positionM),
-      read_position_mm: mm01(p.readPositionM),
-      ...(p.beyondProbeReach ? { beyond_probe_reach: true } : {}),
-      reading: p.reading,
-      velocity_pressure_pa: p.velocityPressurePa,
-      velocity_m_s: p.velocityMS,
-      ...(p.filledFrom !== null ? { filled_from: p.filledFrom, filled_velocity_m_s: p.filledVelocityMS } : {}),
-    })),
+    points: r.points.map(pointJson),
     quality: {
       share_above_tenth_of_max: r.quality.shareAboveTenthOfMax,
       max_over_mean: finiteOrNull(r.quality.maxOverMean),

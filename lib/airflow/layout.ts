@@ -350,11 +350,14 @@ export function buildLayout(req: LayoutRequest): Layout {
   const { across, down } = fractionsFor(duct, method, lineCount, n);
   // The US EPA wall minimum belongs to its equal-area method only; the log rules keep their published positions.
   const relocateM = method === "equal-area" ? wallMinimumM : 0;
-  /** A position along a span, where it is read, and whether the head can reach it. */
+  /** A position along a span, where it is read, and whether the head can reach it (one object per call: this runs per point). */
   const place = (f: number, spanM: number) => {
-    const published = clampToWalls(f * spanM, spanM, relocateM);
-    const read = clampToWalls(published.value, spanM, reachM);
-    return { value: published.value, moved: published.moved, read: read.value, beyond: read.moved };
+    const raw = f * spanM;
+    const lo = Math.min(relocateM, spanM / 2);
+    const value = Math.min(Math.max(raw, lo), spanM - lo);
+    const reach = Math.min(reachM, spanM / 2);
+    const read = Math.min(Math.max(value, reach), spanM - reach);
+    return { value, moved: Math.abs(value - raw) > 1e-12, read, beyond: Math.abs(read - value) > 1e-12 };
   };
 
   const lines: LayoutLine[] = [];
@@ -407,14 +410,19 @@ export function buildLayout(req: LayoutRequest): Layout {
     }
   }
 
-  const all = lines.flatMap((l) => l.points);
-  const moved = all.filter((p) => p.moved).length;
+  let moved = 0;
+  let beyondReachCount = 0;
+  for (const line of lines) {
+    for (const p of line.points) {
+      if (p.moved) moved++;
+      if (p.beyondProbeReach) beyondReachCount++;
+    }
+  }
   if (moved > 0) {
     warnings.push(`${moved} point${moved === 1 ? " was" : "s were"} closer than ${Math.round(wallMinimumM * 1000)} mm to a wall and moved out to it (US EPA Method 1, for equal-area layouts).`);
     const collapsed = lines.some((l) => l.points.some((p, i) => i > 0 && Math.abs(p.positionM - (l.points[i - 1]?.positionM ?? NaN)) < 1e-9));
     if (collapsed) warnings.push("Moving points off the wall made some coincide: use fewer points per line for this duct.");
   }
-  const beyondReachCount = all.filter((p) => p.beyondProbeReach).length;
   const suggestion = beyondReachCount > 0 ? reachableCounts(duct, method, lineCount, n, relocateM, reachM) : null;
   if (beyondReachCount > 0) {
     const headMm = Math.round(headM * 10_000) / 10;
