@@ -48,6 +48,43 @@ test("bad engine input gets 400 with the field at fault, signed-out callers 401"
   expect((await request.post("/api/v1/calc/layout", { data: { duct: { shape: "round", diameter_mm: 600 }, method: "equal-area" } })).status()).toBe(401);
 });
 
+test("the traverse answer states its expanded uncertainty per flow with k = 2, beside the first contract's keys", async ({ playwright, baseURL }) => {
+  const api = await signedIn(playwright, baseURL, "tech@example.test");
+  const res = await api.post("/api/v1/calc/traverse", { data: { ...TRAVERSE, air: { ...TRAVERSE.air, altitude_m: 1500 } } });
+  expect(res.status()).toBe(200);
+  const out = await res.json();
+  expect(out.uncertainty).toEqual(expect.objectContaining({ expanded_pct: expect.any(Number), coverage_factor: 2 }));
+  expect(out.uncertainty_pct).toBe(out.uncertainty.expanded_pct);
+  expect(out.uncertainty_terms_pct).toEqual(expect.objectContaining({ dimension: expect.any(Number), sampling: expect.any(Number) }));
+  for (const flow of ["actual", "standard", "mass"]) expect(out.uncertainty[flow].expanded_pct).toEqual(expect.any(Number));
+  // 101 325 Pa read at a 1500 m site (standard atmosphere 84 556 Pa, ASHRAE Fundamentals ch. 1 eq. 3): accepted, and warned about.
+  expect(out.warnings.join(" ")).toContain("sea-level-corrected");
+  await api.dispose();
+});
+
+test("readings that cannot be a traverse, oversized inputs and wrong types get a 400 in our own words", async ({ playwright, baseURL }) => {
+  const api = await signedIn(playwright, baseURL, "tech@example.test");
+  const swapped = await api.post("/api/v1/calc/traverse", { data: { ...TRAVERSE, readings: TRAVERSE.readings.map((row) => row.map((v) => -v)) } });
+  expect(swapped.status()).toBe(400);
+  expect((await swapped.json()).error.fields.readings).toContain("reversed");
+
+  // Counts are checked before values: 101 lines, and 5 001 empty sections, are refused without reading them.
+  const lines = await api.post("/api/v1/calc/traverse", { data: { ...TRAVERSE, readings: Array.from({ length: 101 }, () => [1]) } });
+  expect(lines.status()).toBe(400);
+  expect((await lines.json()).error.fields.readings).toContain("at most 100 lines");
+  const nodes = await api.post("/api/v1/calc/network", { data: { nodes: Array.from({ length: 5_001 }, () => ({})) } });
+  expect(nodes.status()).toBe(400);
+  expect((await nodes.json()).error.fields.nodes).toContain("at most 5,000");
+
+  const wrong = await api.post("/api/v1/calc/traverse", { data: { ...TRAVERSE, air: [1, 2], probe: "pitot" } });
+  expect(wrong.status()).toBe(400);
+  const fields = (await wrong.json()).error.fields as Record<string, string>;
+  expect(fields.air).toContain("got a list");
+  expect(fields.probe).toContain('got the text "pitot"');
+  for (const message of Object.values(fields)) expect(message).not.toMatch(/^Invalid input|expected \w+, received/);
+  await api.dispose();
+});
+
 test("responses forbid framing and content sniffing", async ({ request }) => {
   const res = await request.get("/sign-in");
   expect(res.headers()["x-frame-options"]).toBe("DENY");
