@@ -10,7 +10,7 @@ import { ApiError } from "@/lib/api-client";
 import { designApi } from "@/lib/api-client/design";
 import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
 import type { TerminalResource } from "@/lib/design/resources";
-import { designSchemas, isTerminalUnit, TERMINAL_KIND_LABELS, type TerminalKind } from "@/lib/validation/design";
+import { designSchemas, isTerminalUnit, SERVICE_LABELS, TERMINAL_KIND_LABELS, type TerminalKind } from "@/lib/validation/design";
 import { DesignForm } from "./design-form";
 import { FormMessage } from "./form-fields";
 import { sectionFields, sectionInitial, terminalFields, terminalInitial } from "./specs";
@@ -64,7 +64,8 @@ export function DuctTreeEditor({ projectId, units: unitSystem, system, sections,
     const walk = (parent: string | null, depth: number) => {
       for (const s of children.get(parent) ?? []) {
         if (exclude.includes(s.id)) continue;
-        out.push({ value: s.id, label: `${"  ".repeat(depth)}${s.tag} · ${ductSize(s, unitSystem)}` });
+        // Options cannot hold markup: non-breaking spaces and a corner show the depth.
+        out.push({ value: s.id, label: `${"\u00a0\u00a0\u00a0".repeat(depth)}${depth > 0 ? "└ " : ""}${s.tag} · ${ductSize(s, unitSystem)}` });
         walk(s.id, depth + 1);
       }
     };
@@ -375,6 +376,15 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
         </div>
       )}
 
+      {own.length === 0 ? (
+        <>
+          <h3 className="mt-5 mb-2 text-lg font-semibold">Outlets and terminal units on {selected.tag}</h3>
+          <p className="rounded-card border border-dashed border-line-strong bg-paper p-3 text-ink-soft">
+            No outlets or terminal units on {selected.tag} yet. Add them here, or import them with the design schedule.
+          </p>
+        </>
+      ) : (
+        <>
       <h3 className="mt-5 mb-2 text-lg font-semibold">Outlets and inlets on {selected.tag}</h3>
       {outlets.length === 0 ? (
         <p className="text-ink-soft">None yet.</p>
@@ -398,7 +408,7 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
               {outlets.map((t) => (
                 <tr key={t.id} className="border-b border-line">
                   <td className="py-1 pr-3 font-semibold">{t.tag}</td>
-                  <td className="py-1 pr-3">{TERMINAL_KIND_LABELS[t.kind]}{t.service !== "supply" && <span className="text-sm text-ink-muted"> · {t.service.replace("_", " ")}</span>}</td>
+                  <td className="py-1 pr-3">{TERMINAL_KIND_LABELS[t.kind]}{t.service !== "supply" && <span className="text-sm text-ink-muted"> · {SERVICE_LABELS[t.service]}</span>}</td>
                   <td className="py-1 pr-3">{t.room || "—"}</td>
                   <td className="py-1 pr-3">{neck(t)}</td>
                   <td className="py-1 pr-3 text-right">{formatIn(units.flow, t.designFlowM3S, 4).replace(` ${units.flow.symbol}`, "")}</td>
@@ -448,12 +458,8 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
           </table>
         </div>
       )}
-      {own.length === 0 && (
-        <p className="mt-2 rounded-card border border-dashed border-line-strong bg-paper p-3 text-ink-soft">
-          No outlets or terminal units on {selected.tag} yet. Add them here, or import them with the design schedule.
-        </p>
+        </>
       )}
-
       {mode.kind !== "addTerminal" && mode.kind !== "editTerminal" && (
         <div className="mt-3 flex flex-wrap gap-2">
           <Button variant="secondary" onClick={() => setMode({ kind: "addTerminal", terminalKind: "diffuser" })}>

@@ -187,7 +187,7 @@ export function terminalFields(sections: { value: string; label: string }[]): Fi
     { name: "widthMm", label: "Neck or inlet width", type: "number", quantity: "dimension", required: true, shown: (v) => v.sizeShape === "rectangular" },
     { name: "heightMm", label: "Neck or inlet height", type: "number", quantity: "dimension", required: true, shown: (v) => v.sizeShape === "rectangular" },
     { name: "designFlowM3S", label: "Design airflow (maximum for terminal units)", type: "number", quantity: "flow", required: true },
-    { name: "designMinFlowM3S", label: "Design minimum airflow", type: "number", quantity: "flow", shown: (v) => v.kind === "vav_box", hint: "0 if the box closes fully." },
+    { name: "designMinFlowM3S", label: "Design minimum airflow", type: "number", quantity: "flow", required: true, shown: (v) => v.kind === "vav_box", hint: "0 if the box closes fully." },
     { name: "designHeatingFlowM3S", label: "Heating airflow", type: "number", quantity: "flow", shown: (v) => v.kind === "vav_box" },
     { name: "controllerFlowFactor", label: "Controller flow factor", type: "number", shown: unit, hint: "As configured in the box controller." },
     { name: "effectiveAreaM2", label: "Effective area (Ak)", type: "number", quantity: "area", shown: outlet, hint: "From the maker's data, when known." },

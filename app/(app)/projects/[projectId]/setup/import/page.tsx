@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { ScheduleImport } from "@/components/setup/schedule-import";
-import { buttonClasses } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { requireProjectPage } from "@/lib/auth/guards";
@@ -18,7 +17,7 @@ export default async function ImportSchedulePage({ params }: { params: Promise<{
   const { project } = page.access;
   const columns = [
     ...PLAIN_COLUMNS.map((c) => ({ name: c.name, applies: c.applies, description: c.description })),
-    ...QUANTITY_COLUMNS.map((c) => ({ name: unitSuffixes(c.quantity).map((s) => `${c.name}_${s}`).join(" / "), applies: c.applies, description: c.description })),
+    ...QUANTITY_COLUMNS.map((c) => ({ name: unitSuffixes(c.quantity).map((s) => `${c.name}_${s}`).join(" "), applies: c.applies, description: c.description })),
   ];
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
@@ -38,11 +37,11 @@ export default async function ImportSchedulePage({ params }: { params: Promise<{
         <p className="mb-3 text-ink-soft">
           Headers may be in any case and order. Every quantity names its unit in the header, so a schedule in cfm and inches imports as it is. Start from an export to
           get the columns right:{" "}
-          <a href={`/api/v1/projects/${project.id}/design/export.csv?units=IP`} className={buttonClasses("quiet", "px-1")} download>
+          <a href={`/api/v1/projects/${project.id}/design/export.csv?units=IP`} className="font-semibold text-accent-strong underline underline-offset-4" download>
             export in cfm and inches
           </a>{" "}
           or{" "}
-          <a href={`/api/v1/projects/${project.id}/design/export.csv?units=SI`} className={buttonClasses("quiet", "px-1")} download>
+          <a href={`/api/v1/projects/${project.id}/design/export.csv?units=SI`} className="font-semibold text-accent-strong underline underline-offset-4" download>
             in L/s and millimetres
           </a>
           .
@@ -60,7 +59,11 @@ export default async function ImportSchedulePage({ params }: { params: Promise<{
               {columns.map((c) => (
                 <tr key={c.name} className="border-b border-line align-top">
                   <td className="py-1 pr-3">
-                    <code className="break-all">{c.name}</code>
+                    <span className="flex flex-col">
+                      {c.name.split(" ").map((n) => (
+                        <code key={n}>{n}</code>
+                      ))}
+                    </span>
                   </td>
                   <td className="py-1 pr-3">{APPLIES[c.applies]}</td>
                   <td className="py-1">{c.description.replace(/`/g, "")}</td>

@@ -28,12 +28,12 @@ export default async function SystemSetupPage({ params }: { params: Promise<{ pr
   const detail = [
     `${KIND_LABEL[system.kind]} · design ${formatIn(u.flow, system.designFlowM3S, 4)}`,
     system.designStaticPa !== null && `static ${formatIn(u.pressure, system.designStaticPa, 3)}`,
-    system.fanSpeedRpm !== null && `fan ${system.fanSpeedRpm} rpm`,
+    system.fanSpeedRpm !== null && `fan ${system.fanSpeedRpm.toLocaleString("en-US")} rpm`,
     system.designOutsideAirM3S !== null && `minimum outside air ${formatIn(u.flow, system.designOutsideAirM3S, 4)}`,
   ].filter(Boolean);
   const motor = [
     system.motorPowerKw !== null && formatIn(u.power, system.motorPowerKw, 3),
-    system.motorSpeedRpm !== null && `${system.motorSpeedRpm} rpm`,
+    system.motorSpeedRpm !== null && `${system.motorSpeedRpm.toLocaleString("en-US")} rpm`,
     system.motorFullLoadAmps !== null && `${system.motorFullLoadAmps} A`,
     system.motorVolts !== null && `${system.motorVolts} V`,
     system.motorPhases !== null && `${system.motorPhases}-phase`,
