@@ -170,7 +170,7 @@ export function DuctTreeEditor({ projectId, units: unitSystem, system, sections,
   const serviceDefault = system.kind;
 
   return (
-    <div className="grid items-start gap-gutter xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+    <div className="grid items-start gap-gutter xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
       <section aria-labelledby="tree-title" className="rounded-card border border-line bg-paper-raised p-gutter shadow-sm">
         <header className="mb-3 flex flex-wrap items-center justify-between gap-3">
           <h2 id="tree-title">Duct tree of {system.tag}</h2>
@@ -191,7 +191,10 @@ export function DuctTreeEditor({ projectId, units: unitSystem, system, sections,
       </section>
 
       <div ref={panel} className="scroll-mt-4 space-y-3">
-        <FormMessage message={message?.text ?? null} tone={message?.tone ?? "ok"} />
+        {/* The live region stays in the page so that its messages are announced; it takes no room while empty. */}
+        <div className={message ? "" : "-mb-3"}>
+          <FormMessage message={message?.text ?? null} tone={message?.tone ?? "ok"} />
+        </div>
         {mode.kind === "addTrunk" && (
           <section aria-labelledby="add-trunk" className="rounded-card border-2 border-accent bg-paper-raised p-gutter">
             <h2 id="add-trunk" className="mb-3">New trunk of {system.tag}</h2>
@@ -271,7 +274,7 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
         </Button>
       </span>
     ) : (
-      <span className="flex flex-wrap gap-1">
+      <span className="flex gap-1">
         <Button variant="quiet" onClick={() => setMode({ kind: "editTerminal", id: t.id })} aria-label={`Edit ${t.tag}`}>
           Edit
         </Button>
@@ -390,7 +393,7 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
         <p className="text-ink-soft">None yet.</p>
       ) : (
         <div className="overflow-x-auto">
-          <table className="w-full text-left">
+          <table className="w-full whitespace-nowrap text-left">
             <thead className="border-b-2 border-line text-sm text-ink-muted">
               <tr>
                 <th className="py-2 pr-3">Tag</th>
@@ -426,7 +429,7 @@ function SectionPanel({ projectId, unitSystem, systemId, selected, parent, kids,
         <p className="text-ink-soft">None yet.</p>
       ) : (
         <div className="overflow-x-auto">
-          <table className="w-full text-left">
+          <table className="w-full whitespace-nowrap text-left">
             <thead className="border-b-2 border-line text-sm text-ink-muted">
               <tr>
                 <th className="py-2 pr-3">Tag</th>

@@ -281,6 +281,15 @@ export function planSchedule(text: string, existing: ExistingDesign): SchedulePl
   const schemas = designSchemas(units);
   const headerOf = (base: string) => h.index.get(base)?.header ?? base;
   const systemsByTag = new Map(existing.systems.map((s) => [s.tag.toLowerCase(), s]));
+  const sectionSystem = new Map(existing.sections.map((s) => [s.id, s.systemId]));
+  const oldSection = (systemId: string | undefined, tag: string) =>
+    systemId ? existing.sections.find((s) => s.systemId === systemId && s.tag.toLowerCase() === tag.toLowerCase()) : undefined;
+  const oldTerminal = (systemId: string | undefined, tag: string) => {
+    const found = systemId ? existing.terminals.filter((t) => sectionSystem.get(t.sectionId) === systemId && t.tag.toLowerCase() === tag.toLowerCase()) : [];
+    return found.length === 1 ? found[0] : undefined;
+  };
+  /** A column the file does not have leaves an existing item's value as it is; an empty cell clears it. */
+  const given = (base: string) => h.index.has(base);
 
   interface Work {
     row: PreviewRow;
@@ -354,38 +363,44 @@ export function planSchedule(text: string, existing: ExistingDesign): SchedulePl
 
     if (record === "section") {
       notFor(["terminal_type", "service", "min_airflow", "heating_airflow", "effective_area", "flow_factor", "room", "device"], "terminal");
+      const old = oldSection(system?.id, tagText);
+      const keep = <T,>(base: string, value: T, previous: T | undefined): T => (!given(base) && old ? (previous as T) : value);
+      const shape = keep("shape", shapeText, old?.shape) as "round" | "rectangular";
       const values = {
-        shape: shapeText as "round" | "rectangular",
-        diameterMm: dims.diameterMm ?? null,
-        widthMm: dims.widthMm ?? null,
-        heightMm: dims.heightMm ?? null,
+        shape,
+        diameterMm: keep("diameter", dims.diameterMm ?? null, old?.diameterMm),
+        widthMm: keep("width", dims.widthMm ?? null, old?.widthMm),
+        heightMm: keep("height", dims.heightMm ?? null, old?.heightMm),
         designFlowM3S: flow as number,
-        straightUpstreamMm: number("straight_upstream") ?? null,
-        straightDownstreamMm: number("straight_downstream") ?? null,
-        location: cell("location"),
+        straightUpstreamMm: keep("straight_upstream", number("straight_upstream") ?? null, old?.straightUpstreamMm),
+        straightDownstreamMm: keep("straight_downstream", number("straight_downstream") ?? null, old?.straightDownstreamMm),
+        location: keep("location", cell("location"), old?.location),
       };
-      apply(schemas.section.safeParse({ ...values, systemId: PLACEHOLDER_ID, parentId: parentText ? PLACEHOLDER_ID : null, tag: tagText, shape: shapeText || undefined, designFlowM3S: flow ?? undefined }));
+      apply(schemas.section.safeParse({ ...values, systemId: PLACEHOLDER_ID, parentId: parentText ? PLACEHOLDER_ID : null, tag: tagText, shape: shape || undefined, designFlowM3S: flow ?? undefined }));
       w.section = values;
     } else if (record === "terminal") {
       notFor(["straight_upstream", "straight_downstream", "location"], "section");
       if (!parentText) errors.push({ column: headerOf("parent"), message: "Give the tag of the section that feeds this terminal." });
-      const kindText = cell("terminal_type").toLowerCase();
-      const serviceText = cell("service").toLowerCase();
+      const old = oldTerminal(system?.id, tagText);
+      const keep = <T,>(base: string, value: T, previous: T | undefined): T => (!given(base) && old ? (previous as T) : value);
+      const kindText = keep("terminal_type", cell("terminal_type").toLowerCase(), old?.kind);
+      const serviceText = keep("service", cell("service").toLowerCase(), old?.service);
+      const shape = keep("shape", shapeText || null, old?.sizeShape) as "round" | "rectangular" | null;
       const values = {
         tag: tagText,
         kind: kindText as TerminalKind,
         service: (serviceText || system?.kind || "supply") as (typeof AIR_SERVICES)[number],
-        room: cell("room"),
-        device: cell("device"),
-        sizeShape: (shapeText || null) as "round" | "rectangular" | null,
-        diameterMm: dims.diameterMm ?? null,
-        widthMm: dims.widthMm ?? null,
-        heightMm: dims.heightMm ?? null,
+        room: keep("room", cell("room"), old?.room),
+        device: keep("device", cell("device"), old?.device),
+        sizeShape: shape,
+        diameterMm: keep("diameter", dims.diameterMm ?? null, old?.diameterMm),
+        widthMm: keep("width", dims.widthMm ?? null, old?.widthMm),
+        heightMm: keep("height", dims.heightMm ?? null, old?.heightMm),
         designFlowM3S: flow as number,
-        designMinFlowM3S: number("min_airflow") ?? null,
-        designHeatingFlowM3S: number("heating_airflow") ?? null,
-        effectiveAreaM2: number("effective_area") ?? null,
-        controllerFlowFactor: number("flow_factor") ?? null,
+        designMinFlowM3S: keep("min_airflow", number("min_airflow") ?? null, old?.designMinFlowM3S),
+        designHeatingFlowM3S: keep("heating_airflow", number("heating_airflow") ?? null, old?.designHeatingFlowM3S),
+        effectiveAreaM2: keep("effective_area", number("effective_area") ?? null, old?.effectiveAreaM2),
+        controllerFlowFactor: keep("flow_factor", number("flow_factor") ?? null, old?.controllerFlowFactor),
       };
       apply(
         schemas.terminal.safeParse({
@@ -393,7 +408,6 @@ export function planSchedule(text: string, existing: ExistingDesign): SchedulePl
           sectionId: PLACEHOLDER_ID,
           kind: kindText || undefined,
           service: serviceText || undefined,
-          sizeShape: shapeText || null,
           designFlowM3S: flow ?? undefined,
         }),
       );

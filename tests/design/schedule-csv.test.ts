@@ -206,6 +206,31 @@ describe("design schedule CSV: export and round trip", () => {
   });
 });
 
+describe("design schedule CSV: columns left out", () => {
+  it("keeps what an existing item has for a column the file leaves out, and clears it for an empty cell", () => {
+    const design = planSchedule(IP_FILE, EMPTY);
+    const base: ExistingDesign = {
+      systems: EMPTY.systems,
+      sections: design.sections.map((s, i) => ({ id: `00000000-0000-4000-8000-00000000000${i}`, systemId: s.systemId, parentId: null, tag: s.tag, ...s.values })),
+      terminals: [],
+    };
+    base.sections[1]!.parentId = base.sections[0]!.id;
+    base.sections[2]!.parentId = base.sections[1]!.id;
+    const t = design.terminals.find((x) => x.tag === "SD-101")!;
+    base.terminals.push({ id: "00000000-0000-4000-8000-000000000099", sectionId: base.sections[2]!.id, ...t.values });
+    // Only airflows: sizes, rooms, devices and effective areas stay as they are.
+    const narrow = ["record,system,tag,parent,design_airflow_cfm", "section,AHU-1,S1.1.1,S1.1,700", "terminal,AHU-1,SD-101,S1.1.1,175"].join("\n");
+    expect(planSchedule(narrow, base).preview.counts).toMatchObject({ unchanged: 2, update: 0, withErrors: 0 });
+    const cleared = ["record,system,tag,parent,design_airflow_cfm,room", "terminal,AHU-1,SD-101,S1.1.1,175,"].join("\n");
+    const plan = planSchedule(cleared, base);
+    expect(plan.preview.rows[0]!.action).toBe("update");
+    expect(plan.terminals[0]!.values).toMatchObject({ room: "", device: "Square-cone diffuser", kind: "diffuser", sizeShape: "round" });
+    // A new item still needs what the file leaves out.
+    const fresh = ["record,system,tag,parent,design_airflow_cfm", "section,AHU-1,S2,,500"].join("\n");
+    expect(errorsOf(planSchedule(fresh, base).preview.rows, "S2")).toEqual(["shape: Duct shape must be one of round, rectangular."]);
+  });
+});
+
 describe("parseDecimal", () => {
   it("takes points for decimals and commas only as thousands", () => {
     expect(parseDecimal("1,000")).toEqual({ ok: true, value: 1000 });

@@ -6,6 +6,7 @@ import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { Verdict } from "@/components/ui/status";
 import { can } from "@/lib/auth/policy";
+import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
 import { formatQuantity } from "@/lib/units";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
@@ -61,7 +62,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
             <p className="num mb-3">
               Design airflow <strong>{formatQuantity(units, "flow", system.designFlowM3S)}</strong>
               {system.fanSpeedRpm !== null && <> · fan {system.fanSpeedRpm.toLocaleString("en-US")} rpm</>}
-              {system.designStaticPa !== null && <> · design static {formatQuantity(units, "pressure", system.designStaticPa)}</>}
+              {system.designStaticPa !== null && <> · design static {formatIn(FORM_UNITS[units].pressure, system.designStaticPa, 3)}</>}
             </p>
             {rows.length === 0 ? (
               <EmptyState>

@@ -28,8 +28,8 @@ export default async function ImportSchedulePage({ params }: { params: Promise<{
       </nav>
       <Card title="Import a design schedule">
         <p className="mb-4 text-ink-soft">
-          One CSV of duct sections and terminals, one line each. Tags already in a system are updated, new tags are added, and nothing is deleted. The air systems must
-          exist first. At most {SCHEDULE_LIMITS.maxRows.toLocaleString("en-US")} lines and 1 MiB; save from a spreadsheet as “CSV UTF-8”.
+          One CSV of duct sections and terminals, one line each. Tags already in a system are updated, new tags are added, and nothing is deleted. A column the file
+          leaves out keeps what the project has; an empty cell clears an optional value. The air systems must exist first. At most {SCHEDULE_LIMITS.maxRows.toLocaleString("en-US")} lines and 1 MiB; save from a spreadsheet as “CSV UTF-8”.
         </p>
         <ScheduleImport projectId={project.id} />
       </Card>
