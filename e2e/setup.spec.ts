@@ -36,6 +36,9 @@ test("an engineer creates a project with its duct tree and terminals by form, ty
   const setup = new SetupPage(page);
   const name = `Harbour Lofts ${Date.now().toString(36)}`;
   await signIn(page, "engineer@example.test");
+  await page.goto("/projects/new");
+  await expectAccessible(page);
+  await page.goto("/projects");
   await setup.createProject(name, "Harbour Lofts");
   await expect(page.getByText("No air systems yet.")).toBeVisible();
   await expectAccessible(page);
