@@ -8,11 +8,11 @@ const CLINIC = "Marlow Quay Clinic — fit-out";
 const ROLES = [
   { email: "tech@example.test", role: "Technician", tabs: ["Overview", "Field work", "Reports"] },
   { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports"] },
-  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Design vs measured", "Reports"] },
+  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Set-up", "Design vs measured", "Reports"] },
   { email: "owner@example.test", role: "Owner", tabs: ["Overview", "Reports"] },
-  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Design vs measured", "Reports", "Members"] },
+  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members"] },
 ];
-const ALL_TABS = ["Overview", "Field work", "Review", "Design vs measured", "Reports", "Members"];
+const ALL_TABS = ["Overview", "Set-up", "Field work", "Review", "Design vs measured", "Reports", "Members"];
 
 for (const account of ROLES) {
   test(`${account.role} signs in and sees their own navigation`, async ({ page }) => {

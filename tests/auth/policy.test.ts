@@ -44,8 +44,8 @@ describe("role policy", () => {
     const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
     expect(labels("technician")).toEqual(["Overview", "Field work", "Reports"]);
     expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports"]);
-    expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports"]);
+    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports"]);
     expect(labels("owner")).toEqual(["Overview", "Reports"]);
-    expect(labels(null, admin)).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
+    expect(labels(null, admin)).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
   });
 });

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { ductSize, pct } from "@/components/airflow/format";
-import { Card } from "@/components/ui/card";
+import { Card, EmptyState } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
@@ -19,8 +19,10 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <Cautions />
+      {systems.length === 0 && <EmptyState>No air systems in this project yet: the project&apos;s engineer sets them up before field work can start.</EmptyState>}
       {systems.map(({ system, sections }) => (
         <Card key={system.id} title={`${system.tag} · ${system.name}`}>
+          {sections.length === 0 && <EmptyState>No duct sections in {system.tag} yet: the project&apos;s engineer adds them in Set-up before traverses can start.</EmptyState>}
           <ul className="divide-y divide-line">
             {sections.map((row) => {
               const duct = ductOf(row.section);

@@ -5,6 +5,8 @@ import { NotAllowed } from "@/components/ui/not-allowed";
 import { listProjectMembers } from "@/db/queries/members";
 import { requireProjectPage } from "@/lib/auth/guards";
 import { ROLE_LABELS } from "@/lib/auth/policy";
+import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
+import { unitSystemFor } from "@/lib/units";
 
 export const metadata: Metadata = { title: "Members" };
 
@@ -13,6 +15,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
   const page = await requireProjectPage(projectId, "members.manage");
   if (!page.allowed) return <NotAllowed what="managing members" />;
   const { project } = page.access;
+  const u = FORM_UNITS[unitSystemFor(page.user, project)];
   const members = await listProjectMembers({ projectId });
   return (
     <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
@@ -45,11 +48,11 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
           <dt className="text-ink-muted">Address</dt>
           <dd>{project.address || "—"}</dd>
           <dt className="text-ink-muted">Altitude</dt>
-          <dd className="num">{project.altitudeM} m</dd>
+          <dd className="num">{formatIn(u.altitude, project.altitudeM, 4)}</dd>
           <dt className="text-ink-muted">Units</dt>
           <dd>{project.unitSystem === "IP" ? "Inch-pound" : "SI"}</dd>
           <dt className="text-ink-muted">Standard air</dt>
-          <dd className="num">{project.standardDensityKgM3} kg/m³</dd>
+          <dd className="num">{formatIn(u.density, project.standardDensityKgM3, 4)}</dd>
           <dt className="text-ink-muted">Terminals</dt>
           <dd className="num">{formatTolerance(toleranceFor(project, "outlet"))} of design</dd>
           <dt className="text-ink-muted">Duct sections</dt>
