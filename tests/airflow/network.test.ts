@@ -190,18 +190,14 @@ describe("checkContinuity: properties and scale", () => {
     );
   });
 
-  it("handles 20 000 sections, wide and deep, in linear time without recursion", () => {
+  it("handles 20 000 sections, wide and deep, without recursion (its speed is measured in npm run bench)", () => {
     const n = 20_000;
     const chain: NetworkNode[] = Array.from({ length: n }, (_, i) => ({ id: `c${i}`, parent: i === 0 ? null : `c${i - 1}`, massFlowKgS: 1 }));
     const star: NetworkNode[] = [{ id: "hub", parent: null, massFlowKgS: n - 1 }, ...Array.from({ length: n - 1 }, (_, i) => ({ id: `s${i}`, parent: "hub", massFlowKgS: 1 }))];
-    const t0 = performance.now();
     const deep = checkContinuity(chain).junctions;
     const wide = checkContinuity(star).junctions;
-    const elapsedMs = performance.now() - t0;
     expect(deep).toHaveLength(n - 1);
     expect(wide).toHaveLength(1);
     expect(wide[0]?.imbalanceKgS).toBe(0);
-    // Quadratic work on 20 000 sections (4e8 steps) would take seconds; linear work takes milliseconds.
-    expect(elapsedMs).toBeLessThan(1500);
   });
 });
