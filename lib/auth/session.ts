@@ -6,22 +6,38 @@ import { resolveSessionSecret } from "./secret";
 
 export interface SessionData {
   userId?: string;
+  /** The user's session version at sign-in; the session is void once the user's version moves on. Absent in cookies sealed before versions existed (version 1). */
+  sv?: number;
 }
 
+/** The cookie name over plain HTTP (the demo on localhost). */
 export const SESSION_COOKIE = "airtally_session";
+/**
+ * Over HTTPS the name carries the `__Host-` prefix: browsers then accept the cookie only when it is
+ * Secure, has Path=/ and no Domain, so a sibling subdomain cannot plant or overwrite it.
+ */
+export const SECURE_SESSION_COOKIE = `__Host-${SESSION_COOKIE}`;
+
+/** Production is served over HTTPS; the demo runs a production build on plain http://localhost. */
+export function servedOverHttps(): boolean {
+  return process.env.NODE_ENV === "production" && !demoMode();
+}
+
+export function sessionCookieName(): string {
+  return servedOverHttps() ? SECURE_SESSION_COOKIE : SESSION_COOKIE;
+}
 
 let options: SessionOptions | undefined;
 
-function sessionOptions(): SessionOptions {
+export function sessionOptions(): SessionOptions {
   options ??= {
-    cookieName: SESSION_COOKIE,
+    cookieName: sessionCookieName(),
     password: resolveSessionSecret(defaultDataDir()),
     ttl: 60 * 60 * 12, // a working day on site
     cookieOptions: {
       httpOnly: true,
       sameSite: "lax",
-      // Production is served over HTTPS; the demo runs a production build on plain http://localhost.
-      secure: process.env.NODE_ENV === "production" && !demoMode(),
+      secure: servedOverHttps(),
       path: "/",
     },
   };
@@ -30,4 +46,9 @@ function sessionOptions(): SessionOptions {
 
 export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions());
+}
+
+/** True when the session was sealed for the user's current session version. */
+export function sessionIsCurrent(session: SessionData, userSessionVersion: number): boolean {
+  return (session.sv ?? 1) === userSessionVersion;
 }

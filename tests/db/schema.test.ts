@@ -28,6 +28,7 @@ describe("migrations and demo seed", () => {
       "projects",
       "readings",
       "reviews",
+      "sign_in_attempts",
       "terminal_readings",
       "terminals",
       "traverses",
