@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ACTIONS, ROUTES_OUTSIDE_PROJECTS } from "@/lib/auth/policy";
 import { routeDeclaration } from "@/lib/server/route";
+import { ENDPOINTS } from "../../e2e/support/endpoints";
 import { dynamicSegments, HTTP_METHODS, listApiRouteFiles } from "../support/api-routes";
 
 // Walks app/api on disk, so a route added later is checked without anyone editing this file.
@@ -40,6 +41,25 @@ describe("every API route declares its rule", () => {
       }
     }
     for (const key of Object.keys(ROUTES_OUTSIDE_PROJECTS)) if (!seen.has(key)) problems.push(`${key}: listed in ROUTES_OUTSIDE_PROJECTS but no such route exists`);
+    expect(problems).toEqual([]);
+  });
+
+  it("has a row in the authorization matrix (e2e/support/endpoints.ts) for every route and method, with the route's own declaration", async () => {
+    const problems: string[] = [];
+    for (const { file, pattern } of files) {
+      const mod = (await import(/* @vite-ignore */ file)) as Record<string, unknown>;
+      for (const method of HTTP_METHODS.filter((m) => m in mod)) {
+        const d = routeDeclaration(mod[method]);
+        const rows = ENDPOINTS.filter((e) => e.method === method && e.route === pattern);
+        if (rows.length === 0) problems.push(`${method} ${pattern}: no row in e2e/support/endpoints.ts`);
+        for (const row of rows) {
+          const declared = d?.scope === "project" ? { action: d.action } : d ? { outsideProject: d.scope } : null;
+          if (JSON.stringify(declared) !== JSON.stringify(row.rule)) problems.push(`${method} ${pattern}: the matrix says ${JSON.stringify(row.rule)}, the route ${JSON.stringify(declared)}`);
+        }
+      }
+    }
+    const known = new Set(files.map((f) => f.pattern));
+    for (const row of ENDPOINTS) if (!known.has(row.route)) problems.push(`${row.method} ${row.route}: in the matrix but no such route`);
     expect(problems).toEqual([]);
   });
 });
