@@ -52,6 +52,17 @@ export async function getUserWithProjectAccess({ userId, projectId }: { userId: 
   return { user, access: project ? { project, role } : null };
 }
 
+/** The projects a user is a member of, with the role: one indexed lookup (GET /api/auth/me). */
+export async function listMembershipsForUser({ userId }: { userId: string }): Promise<{ projectId: string; role: MemberRole }[]> {
+  const db = await getDb();
+  return db
+    .select({ projectId: projectMembers.projectId, role: projectMembers.role })
+    .from(projectMembers)
+    .innerJoin(projects, eq(projects.id, projectMembers.projectId))
+    .where(eq(projectMembers.userId, userId))
+    .orderBy(asc(projects.name));
+}
+
 export interface ProjectSummary {
   id: string;
   name: string;

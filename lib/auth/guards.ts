@@ -4,7 +4,7 @@ import { cache } from "react";
 import { getUserById, type SessionUser } from "@/db/queries/users";
 import { getProjectAccess, getUserWithProjectAccess, type ProjectAccess } from "@/db/queries/projects";
 import { can, type Action } from "./policy";
-import { getSession, sessionIsCurrent } from "./session";
+import { readSession, sessionIsCurrent } from "./session";
 
 /**
  * The signed-in user, read fresh from the database so a removed account loses access at once, and
@@ -13,7 +13,7 @@ import { getSession, sessionIsCurrent } from "./session";
  * Cached per server render: the layout and the page ask once between them.
  */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {
-  const session = await getSession();
+  const session = await readSession();
   if (!session.userId) return null;
   const user = await getUserById({ id: session.userId });
   return user && sessionIsCurrent(session, user.sessionVersion) ? user : null;
@@ -25,7 +25,7 @@ export const currentUser = cache(async (): Promise<SessionUser | null> => {
  * the handler runs.
  */
 export async function currentUserWithProject(projectId: string): Promise<{ user: SessionUser; access: ProjectAccess | null } | null> {
-  const session = await getSession();
+  const session = await readSession();
   if (!session.userId) return null;
   const found = await getUserWithProjectAccess({ userId: session.userId, projectId });
   if (!found || !sessionIsCurrent(session, found.user.sessionVersion)) return null;

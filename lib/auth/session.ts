@@ -1,5 +1,5 @@
 import "server-only";
-import { getIronSession, type SessionOptions } from "iron-session";
+import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
 import { defaultDataDir, demoMode } from "@/db/client";
 import { resolveSessionSecret } from "./secret";
@@ -46,6 +46,30 @@ export function sessionOptions(): SessionOptions {
 
 export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions());
+}
+
+/**
+ * Unsealed cookies, remembered briefly: unsealing derives a key (PBKDF2) and decrypts on every
+ * request, which showed up in the load profile. A sealed value always opens to the same data, so
+ * the only thing a cache could stretch is the cookie's own expiry, by at most UNSEAL_CACHE_MS;
+ * revocation does not depend on it (the session version is compared with the user row each time).
+ */
+const UNSEAL_CACHE_MS = 30_000;
+const UNSEAL_CACHE_SIZE = 5_000;
+const unsealed = new Map<string, { data: SessionData; until: number }>();
+
+/** The session of this request, for reading (sign-in and sign-out write through getSession). */
+export async function readSession(): Promise<SessionData> {
+  const opts = sessionOptions();
+  const seal = (await cookies()).get(opts.cookieName)?.value;
+  if (!seal) return {};
+  const now = Date.now();
+  const hit = unsealed.get(seal);
+  if (hit && hit.until > now) return hit.data;
+  const data = await unsealData<SessionData>(seal, { password: opts.password, ttl: opts.ttl });
+  if (unsealed.size >= UNSEAL_CACHE_SIZE) unsealed.delete(unsealed.keys().next().value!);
+  unsealed.set(seal, { data, until: now + UNSEAL_CACHE_MS });
+  return data;
 }
 
 /** True when the session was sealed for the user's current session version. */
