@@ -40,3 +40,17 @@ test("a new password ends every other session and keeps this one", async ({ play
   expect((await here.post("/api/auth/password", { data: { current_password: "a-new-long-password", new_password: DEMO_PASSWORD } })).status()).toBe(204);
   await Promise.all([other.dispose(), here.dispose()]);
 });
+
+test("the sign-out page ends every session of the user from one click", async ({ page, playwright, baseURL }) => {
+  const tablet = await device(playwright, baseURL);
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(EMAIL);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(/\/projects$/);
+  await page.goto("/sign-out");
+  await page.getByRole("button", { name: "Sign out on every device" }).click();
+  await expect(page.getByRole("heading", { name: "You are signed out" })).toBeVisible();
+  expect((await tablet.get("/api/auth/me")).status()).toBe(401);
+  await tablet.dispose();
+});
