@@ -33,6 +33,7 @@ describe("every API route declares its rule", () => {
           if (!(ACTIONS as readonly string[]).includes(d.action)) problems.push(`${key}: action "${d.action}" is not in the policy`);
           if (key in ROUTES_OUTSIDE_PROJECTS) problems.push(`${key}: declares a project but is listed in ROUTES_OUTSIDE_PROJECTS`);
         } else {
+          if (d.scope === "signed-in" && !d.declared) problems.push(`${key}: declares neither \`project: { param, action }\` nor \`outsideProject\` in defineRoute`);
           if (dynamicSegments(pattern).includes("projectId")) problems.push(`${key}: has [projectId] in its path but declares no project action`);
           const listed = ROUTES_OUTSIDE_PROJECTS[key];
           if (!listed) problems.push(`${key}: declares no project action and is not listed in ROUTES_OUTSIDE_PROJECTS (lib/auth/policy.ts)`);

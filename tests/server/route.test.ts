@@ -41,6 +41,8 @@ describe("defineRoute", () => {
   it("declares its rule on the handler", () => {
     expect(routeDeclaration(route)).toEqual({ scope: "project", param: "projectId", action: "traverse.record" });
     expect(routeDeclaration(async () => new Response())).toBeNull();
+    // The first calling shape still compiles and requires a session; the route test flags it as undeclared.
+    expect(routeDeclaration(defineRoute({}, async () => new Response()))).toEqual({ scope: "signed-in", declared: false });
   });
 
   it("answers 401 to a caller without a session", async () => {
