@@ -32,6 +32,13 @@ export default defineConfig({
       args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
     },
   },
+  // Specs that change shared state run after the others, one stage at a time: the matrix saves
+  // preferences as every role; the session spec ends sessions and changes a password.
+  projects: [
+    { name: "journeys", testIgnore: /(authorization-matrix|sessions)\.spec\.ts/ },
+    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["journeys"] },
+    { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
+  ],
   webServer: {
     // The production build (rebuilt when sources changed) on a throwaway in-memory database with the demo seed.
     command: "node_modules/.bin/tsx lib/cli/serve.ts --demo",

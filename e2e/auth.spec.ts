@@ -107,9 +107,17 @@ test("a user sees only the projects they belong to", async ({ playwright, baseUR
   await expect(page.getByText("Marlow Quay")).toHaveCount(0);
 });
 
-test("the health check names the embedded database", async ({ request }) => {
-  const res = await request.get("/api/health");
-  expect(await res.json()).toEqual({ status: "ok", database: "pglite" });
+test("the health check tells anyone the service is up, and only a signed-in administrator which database it uses", async ({ request, playwright, baseURL }) => {
+  expect(await (await request.get("/api/health")).json()).toEqual({ status: "ok" });
+  for (const [email, body] of [
+    ["engineer@example.test", { status: "ok" }],
+    ["admin@example.test", { status: "ok", database: "pglite" }],
+  ] as const) {
+    const api = await playwright.request.newContext({ baseURL });
+    await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } });
+    expect(await (await api.get("/api/health")).json()).toEqual(body);
+    await api.dispose();
+  }
 });
 
 test("each user picks the unit system every screen shows", async ({ page }) => {

@@ -29,7 +29,8 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "terminal.record": ["technician"],
   "traverse.submit": ["technician"],
   "traverse.review": ["commissioning_agent"],
-  "design.view": ["technician", "commissioning_agent", "engineer"],
+  // Owners read design against measured: it is what their closeout report shows them.
+  "design.view": ALL,
   "design.edit": ["engineer"],
   "deviation.accept": ["engineer"],
   "report.issue": ["commissioning_agent"],
@@ -54,4 +55,32 @@ export const ROLE_LABELS: Record<MemberRole, string> = {
   commissioning_agent: "Commissioning agent",
   engineer: "Engineer",
   owner: "Owner",
+};
+
+/**
+ * API routes that act on no project, each with who may call it. Every other route under app/api
+ * declares `project: { param, action }` in defineRoute; tests/auth/routes.test.ts walks app/api and
+ * fails on a route that does neither, or on one missing from this list. Keys: "METHOD /api/path"
+ * with the folder names as written ([param] and [...rest] included).
+ */
+export const ROUTES_OUTSIDE_PROJECTS: Record<string, "public" | "signed-in"> = {
+  "GET /api/health": "public",
+  "POST /api/auth/sign-in": "public",
+  "POST /api/auth/sign-out": "public",
+  "POST /api/auth/sign-out-everywhere": "signed-in",
+  "POST /api/auth/password": "signed-in",
+  "GET /api/auth/me": "signed-in",
+  "GET /api/v1/projects": "signed-in",
+  // Site administrators and engineers of a project start projects; the handler checks which before reading the body.
+  "POST /api/v1/projects": "signed-in",
+  // The API description holds no data.
+  "GET /api/v1/openapi.json": "public",
+  "PATCH /api/v1/me": "signed-in",
+  "POST /api/v1/calc/[command]": "signed-in",
+  // Unknown API paths answer a JSON 404 to anyone.
+  "GET /api/[...path]": "public",
+  "POST /api/[...path]": "public",
+  "PUT /api/[...path]": "public",
+  "PATCH /api/[...path]": "public",
+  "DELETE /api/[...path]": "public",
 };

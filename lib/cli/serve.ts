@@ -12,7 +12,8 @@ import { spawn, spawnSync } from "node:child_process";
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
-import { acquireDataDirLock, defaultDataDir } from "@/db/client";
+import { defaultDataDir } from "@/db/client";
+import { LOCK_DIR_ENV, LOCK_FD_ENV, lockDataDir, type DataDirLock } from "@/db/lock";
 import { MissingSecretError, resolveSessionSecret, SECRET_ENV } from "@/lib/auth/secret";
 
 const root = process.cwd();
@@ -86,14 +87,19 @@ async function main() {
   if (demo) env.AIRTALLY_DEMO = "1";
   const dataDir = defaultDataDir();
 
-  // The server opens the data directory; refuse now rather than let two processes share it.
+  // Take the data directory now and keep it through the build until the server exits: the server
+  // inherits the locked descriptor (fd 3), so no `npm run dev` or `db:seed` can slip in between.
+  let lock: DataDirLock | null = null;
   if (!env.DATABASE_URL && !dataDir.startsWith("memory://")) {
     try {
-      acquireDataDirLock(dataDir)();
+      lock = lockDataDir(dataDir);
     } catch (err) {
       fail((err as Error).message);
     }
+    if (lock.fd !== null) Object.assign(env, { [LOCK_FD_ENV]: "3", [LOCK_DIR_ENV]: path.resolve(dataDir) });
   }
+  const releaseLock = () => lock?.release();
+  process.on("exit", releaseLock);
 
   try {
     // The secret rules read the mode from the environment, as the server will.
@@ -106,9 +112,15 @@ async function main() {
 
   ensureBuild(env);
 
-  const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: "inherit", env });
+  // The server closes the database itself on SIGTERM/SIGINT (instrumentation.ts), instead of the
+  // framework's own handler exiting first.
+  env.NEXT_MANUAL_SIG_HANDLE = "1";
+  const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: ["inherit", "inherit", "inherit", lock?.fd ?? "ignore"], env });
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => child.kill(signal));
-  child.on("exit", (code) => process.exit(code ?? 0));
+  child.on("exit", (code, signal) => {
+    releaseLock();
+    process.exit(code ?? (signal ? 128 + (signal === "SIGINT" ? 2 : signal === "SIGKILL" ? 9 : 15) : 0));
+  });
 
   await waitForHealth(child);
   const where = env.DATABASE_URL ? "PostgreSQL (DATABASE_URL)" : `embedded PGlite in ${dataDir}`;

@@ -14,3 +14,16 @@ export const preferencesSchema = z
   })
   .strict();
 export type PreferencesInput = z.infer<typeof preferencesSchema>;
+
+/** NIST SP 800-63B §5.1.1.2 asks for at least 8 characters and allows long passphrases; 12 is common practice today. */
+export const passwordChangeSchema = z
+  .object({
+    current_password: z.string({ error: "Enter your current password." }).min(1, "Enter your current password.").max(200),
+    new_password: z
+      .string({ error: "Enter a new password." })
+      .min(12, "Use at least 12 characters for the new password.")
+      .max(200, "Passwords are at most 200 characters."),
+  })
+  .strict()
+  .refine((v) => v.current_password !== v.new_password, { path: ["new_password"], message: "The new password must differ from the current one." });
+export type PasswordChangeInput = z.infer<typeof passwordChangeSchema>;

@@ -19,12 +19,17 @@ describe("role policy", () => {
     expect(can(member, "commissioning_agent", "traverse.review")).toBe(true);
     expect(can(member, "technician", "traverse.review")).toBe(false);
     expect(can(member, "engineer", "deviation.accept")).toBe(true);
-    expect(can(member, "owner", "design.view")).toBe(false);
+    expect(can(member, "owner", "design.edit")).toBe(false);
     expect(can(member, "technician", "terminal.record")).toBe(true);
     expect(can(member, "owner", "terminal.record")).toBe(false);
     expect(can(member, "engineer", "project.edit")).toBe(true);
     expect(can(member, "engineer", "design.edit")).toBe(true);
     expect(can(member, "technician", "design.edit")).toBe(false);
+  });
+
+  it("lets every member read design against measured, owners included (their closeout report shows it), and only engineers change it", () => {
+    for (const role of ["technician", "commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "design.view")).toBe(true);
+    expect(POLICY["design.edit"]).toEqual(["engineer"]);
   });
 
   it("gives non-members nothing and site administrators set-up and oversight only", () => {

@@ -15,7 +15,8 @@ export const metadata: Metadata = { title: "Project overview" };
 const KIND_LABEL = { supply: "Supply", return: "Return", exhaust: "Exhaust", outside_air: "Outside air" } as const;
 
 export default async function ProjectOverviewPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const screen = await loadAirflowScreen(params, "project.view");
+  // The overview shows design against measured: every member may read it (design.view), owners included.
+  const screen = await loadAirflowScreen(params, "design.view");
   if (!screen.allowed) notFound();
   const { project, units, systems } = screen;
   const setsUp = can(screen.user, screen.access.role, "design.edit");

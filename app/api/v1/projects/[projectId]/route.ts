@@ -6,8 +6,8 @@ import { defineRoute } from "@/lib/server/route";
 import { DESIGN } from "@/lib/validation/design";
 
 /** One project with the caller's role and its design side: air systems, duct sections and terminals (SI units). */
-export const GET = defineRoute({ project: { param: "projectId", action: "project.view" } }, async ({ access }) => {
-  const { project, role } = access!;
+export const GET = defineRoute({ project: { param: "projectId", action: "design.view" } }, async ({ access }) => {
+  const { project, role } = access;
   const design = await getProjectDesign({ projectId: project.id });
   return NextResponse.json({ project, role, ...design, terminals: design.terminals.map(terminalResource) });
 });

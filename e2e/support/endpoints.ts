@@ -1,0 +1,75 @@
+/**
+ * Every API endpoint with a sample request, for the authorization matrix
+ * (e2e/authorization-matrix.spec.ts). tests/auth/routes.test.ts checks that every route under
+ * app/api has a row here with the same declaration, so a new route needs its row: add one per
+ * method with a body that the route accepts, and the status it answers when the caller may.
+ */
+import type { Action } from "../../lib/auth/policy";
+
+export interface Endpoint {
+  method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+  /** The route's folder pattern, as in ROUTES_OUTSIDE_PROJECTS ("/api/v1/projects/[projectId]"). */
+  route: string;
+  /** The concrete path called; `{projectId}` is replaced by the project under test. */
+  path: string;
+  /** What the route declares in defineRoute. */
+  rule: { action: Action } | { outsideProject: "public" | "signed-in" };
+  /** A request body the route accepts (a function for a fresh one per call). */
+  body?: unknown;
+  /** The status when the caller may do this. */
+  ok: number;
+  /**
+   * True for calls that end the caller's sessions or change their password: the matrix then checks
+   * only the refusals (signed out, foreign origin); e2e/sessions.spec.ts covers the rest.
+   */
+  endsSessions?: boolean;
+}
+
+/** An id that no row has: callers the policy allows get 404 for the row, others 403 or the project's 404. */
+const UNKNOWN_ID = "00000000-0000-4000-8000-00000000abcd";
+const LAYOUT = { duct: { shape: "round", diameter_mm: 600 }, method: "equal-area" };
+
+export const ENDPOINTS: Endpoint[] = [
+  { method: "GET", route: "/api/health", path: "/api/health", rule: { outsideProject: "public" }, ok: 200 },
+  { method: "POST", route: "/api/auth/sign-in", path: "/api/auth/sign-in", rule: { outsideProject: "public" }, body: () => ({ email: `no-account-${Math.random().toString(36).slice(2)}@example.test`, password: "not-a-password" }), ok: 401 },
+  { method: "POST", route: "/api/auth/sign-out", path: "/api/auth/sign-out", rule: { outsideProject: "public" }, ok: 204, endsSessions: true },
+  { method: "POST", route: "/api/auth/sign-out-everywhere", path: "/api/auth/sign-out-everywhere", rule: { outsideProject: "signed-in" }, ok: 204, endsSessions: true },
+  {
+    method: "POST",
+    route: "/api/auth/password",
+    path: "/api/auth/password",
+    rule: { outsideProject: "signed-in" },
+    body: { current_password: "airtally-demo", new_password: "a-new-long-password" },
+    ok: 204,
+    endsSessions: true,
+  },
+  { method: "GET", route: "/api/auth/me", path: "/api/auth/me", rule: { outsideProject: "signed-in" }, ok: 200 },
+  { method: "GET", route: "/api/v1/projects", path: "/api/v1/projects", rule: { outsideProject: "signed-in" }, ok: 200 },
+  { method: "PATCH", route: "/api/v1/me", path: "/api/v1/me", rule: { outsideProject: "signed-in" }, body: { unit_system: null }, ok: 200 },
+  { method: "POST", route: "/api/v1/calc/[command]", path: "/api/v1/calc/layout", rule: { outsideProject: "signed-in" }, body: LAYOUT, ok: 200 },
+  { method: "GET", route: "/api/v1/projects/[projectId]", path: "/api/v1/projects/{projectId}", rule: { action: "design.view" }, ok: 200 },
+  { method: "GET", route: "/api/v1/openapi.json", path: "/api/v1/openapi.json", rule: { outsideProject: "public" }, ok: 200 },
+  // Set-up. Creations and changes that need ids of the project's own sections are sent without them:
+  // a caller the policy allows gets 400 naming the field (the role is checked before the body is read),
+  // so the matrix changes nothing in the demo.
+  { method: "POST", route: "/api/v1/projects", path: "/api/v1/projects", rule: { outsideProject: "signed-in" }, body: {}, ok: 400 },
+  { method: "PATCH", route: "/api/v1/projects/[projectId]", path: "/api/v1/projects/{projectId}", rule: { action: "project.edit" }, body: { altitudeM: "high" }, ok: 400 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/systems", path: "/api/v1/projects/{projectId}/systems", rule: { action: "design.edit" }, body: {}, ok: 400 },
+  ...(["PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/v1/projects/[projectId]/systems/[systemId]", path: `/api/v1/projects/{projectId}/systems/${UNKNOWN_ID}`, rule: { action: "design.edit" }, body: method === "PATCH" ? { name: "x" } : undefined, ok: 404 }),
+  ),
+  { method: "POST", route: "/api/v1/projects/[projectId]/sections", path: "/api/v1/projects/{projectId}/sections", rule: { action: "design.edit" }, body: {}, ok: 400 },
+  ...(["PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/v1/projects/[projectId]/sections/[sectionId]", path: `/api/v1/projects/{projectId}/sections/${UNKNOWN_ID}`, rule: { action: "design.edit" }, body: method === "PATCH" ? { location: "x" } : undefined, ok: 404 }),
+  ),
+  { method: "GET", route: "/api/v1/projects/[projectId]/terminals", path: "/api/v1/projects/{projectId}/terminals", rule: { action: "design.view" }, ok: 200 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/terminals", path: "/api/v1/projects/{projectId}/terminals", rule: { action: "design.edit" }, body: {}, ok: 400 },
+  ...(["PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/v1/projects/[projectId]/terminals/[terminalId]", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}`, rule: { action: "design.edit" }, body: method === "PATCH" ? { room: "x" } : undefined, ok: 404 }),
+  ),
+  { method: "GET", route: "/api/v1/projects/[projectId]/design/export.csv", path: "/api/v1/projects/{projectId}/design/export.csv", rule: { action: "design.view" }, ok: 200 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/design/import", path: "/api/v1/projects/{projectId}/design/import?mode=preview", rule: { action: "design.edit" }, ok: 415 },
+  ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/[...path]", path: "/api/v1/no-such-endpoint", rule: { outsideProject: "public" }, body: method === "GET" ? undefined : {}, ok: 404 }),
+  ),
+];
