@@ -33,6 +33,8 @@ for (const { email, tab } of SCREENS) {
     await expectNoViolations(page);
     await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: tab }).click();
     await expect(page.getByRole("link", { name: tab })).toHaveAttribute("aria-current", "page");
+    // The new page's title replaces the old one a moment after its content: wait for it, not just any title.
+    await expect(page).toHaveTitle(new RegExp(`^${tab}`));
     await expectNoViolations(page);
   });
 }
