@@ -35,7 +35,9 @@ const CALLERS: Caller[] = [
 function expected(row: Endpoint, caller: Caller, project: string | null): number {
   if ("outsideProject" in row.rule) {
     if (row.rule.outsideProject === "public") return row.ok;
-    return caller.email ? row.ok : 401;
+    if (!caller.email) return 401;
+    if (row.only && !(row.only.admins && caller.actor.isAdmin) && !Object.values(caller.roles).some((r) => r && row.only!.rolesAnywhere.includes(r))) return 403;
+    return row.ok;
   }
   if (!caller.email) return 401;
   if (project === null) return 404;
@@ -82,8 +84,10 @@ test("every endpoint answers every caller as the policy says, and never reveals 
         if (res.status() >= 400) {
           const body = await res.json();
           if (typeof body?.error?.message !== "string") failures.push(`${label}: no error body`);
-          // A hidden project answers exactly like one that does not exist.
-          if (res.status() === 404 && perProject) expect(body).toEqual({ error: { message: "No such project, or you are not a member of it." } });
+          // A hidden project answers exactly like one that does not exist (a row whose own answer is 404,
+          // an unknown child id in a visible project, names the child instead).
+          const projectHidden = perProject && (target.project === null || !can(caller.actor, caller.roles[target.project] ?? null, "project.view"));
+          if (res.status() === 404 && projectHidden) expect(body).toEqual({ error: { message: "No such project, or you are not a member of it." } });
         }
         // From another site, every state-changing call is refused before anything else happens.
         if (row.method !== "GET" && caller.email && want !== 401) {

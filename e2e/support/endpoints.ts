@@ -5,6 +5,7 @@
  * method with a body that the route accepts, and the status it answers when the caller may.
  */
 import type { Action } from "../../lib/auth/policy";
+import type { MemberRole } from "../../db/schema";
 
 export interface Endpoint {
   method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
@@ -18,6 +19,11 @@ export interface Endpoint {
   body?: unknown;
   /** The status when the caller may do this. */
   ok: number;
+  /**
+   * For routes outside projects that are open to some signed-in users only: who may (site
+   * administrators, or holders of one of these roles in any project); everyone else gets 403.
+   */
+  only?: { admins: boolean; rolesAnywhere: MemberRole[] };
   /**
    * True for calls that end the caller's sessions or change their password: the matrix then checks
    * only the refusals (signed out, foreign origin); e2e/sessions.spec.ts covers the rest.
@@ -52,7 +58,15 @@ export const ENDPOINTS: Endpoint[] = [
   // Set-up. Creations and changes that need ids of the project's own sections are sent without them:
   // a caller the policy allows gets 400 naming the field (the role is checked before the body is read),
   // so the matrix changes nothing in the demo.
-  { method: "POST", route: "/api/v1/projects", path: "/api/v1/projects", rule: { outsideProject: "signed-in" }, body: {}, ok: 400 },
+  {
+    method: "POST",
+    route: "/api/v1/projects",
+    path: "/api/v1/projects",
+    rule: { outsideProject: "signed-in" },
+    only: { admins: true, rolesAnywhere: ["engineer"] },
+    body: {},
+    ok: 400,
+  },
   { method: "PATCH", route: "/api/v1/projects/[projectId]", path: "/api/v1/projects/{projectId}", rule: { action: "project.edit" }, body: { altitudeM: "high" }, ok: 400 },
   { method: "POST", route: "/api/v1/projects/[projectId]/systems", path: "/api/v1/projects/{projectId}/systems", rule: { action: "design.edit" }, body: {}, ok: 400 },
   ...(["PATCH", "DELETE"] as const).map(
