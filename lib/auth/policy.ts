@@ -9,6 +9,7 @@ export const ACTIONS = [
   "project.edit",
   "traverse.record",
   "terminal.record",
+  "conditions.record",
   "traverse.submit",
   "traverse.review",
   "design.view",
@@ -27,6 +28,8 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "project.edit": ["engineer"],
   "traverse.record": ["technician"],
   "terminal.record": ["technician"],
+  /** The operating conditions readings are taken under: recorded by those who take the readings. */
+  "conditions.record": ["technician"],
   "traverse.submit": ["technician"],
   "traverse.review": ["commissioning_agent"],
   "design.view": ["technician", "commissioning_agent", "engineer"],
@@ -47,6 +50,14 @@ export interface Actor {
 export function can(actor: Actor, role: MemberRole | null, action: Action): boolean {
   if (role !== null && POLICY[action].includes(role)) return true;
   return actor.isAdmin && ADMIN_ACTIONS.has(action);
+}
+
+/**
+ * The instrument register is deployment-wide, not a project's: it is kept by the people who carry the
+ * instruments (a technician on at least one project) and by site administrators. Every signed-in user may read it.
+ */
+export function canKeepInstrumentRegister(actor: Actor, roles: readonly (MemberRole | null)[]): boolean {
+  return actor.isAdmin || roles.includes("technician");
 }
 
 export const ROLE_LABELS: Record<MemberRole, string> = {

@@ -1,8 +1,9 @@
 import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
+import { fieldOperations } from "./operations/field";
 
 /** Every documented operation; each area adds its own list here. */
-export const OPERATIONS: readonly Operation[] = [...coreOperations];
+export const OPERATIONS: readonly Operation[] = [...coreOperations, ...fieldOperations];
 
 export function openApiDocument() {
   return buildOpenApiDocument(OPERATIONS, { version: "1" });

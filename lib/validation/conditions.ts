@@ -32,20 +32,25 @@ export const conditionsCreateSchema = z
       .refine((s) => !Number.isNaN(Date.parse(s)) && /^\d{4}-\d{2}-\d{2}T/.test(s), { error: (iss) => `must be a date and time such as 2026-11-24T09:40:00Z; got ${describeValue(iss.input)}` })
       .optional(),
   })
-  .superRefine((c, ctx) => {
-    if (c.fanSpeedRpm === null && c.vfdHz === null)
-      ctx.addIssue({
-        code: "custom",
-        path: ["fanSpeedRpm"],
-        message: "give the fan speed in rpm (tachometer) or the drive frequency in Hz (VFD display); got neither",
-      });
-    if (c.recordedAt !== undefined && !Number.isNaN(Date.parse(c.recordedAt))) {
-      const at = Date.parse(c.recordedAt);
-      const now = Date.now();
-      if (at > now + MAX_FUTURE_MINUTES * 60_000) ctx.addIssue({ code: "custom", path: ["recordedAt"], message: `cannot be in the future; got ${c.recordedAt}` });
-      else if (at < now - MAX_BACKDATE_DAYS * 86_400_000)
-        ctx.addIssue({ code: "custom", path: ["recordedAt"], message: `cannot be more than ${MAX_BACKDATE_DAYS} days ago; got ${c.recordedAt}` });
-    }
-  });
+  .superRefine(
+    (c, ctx) => {
+      // Runs even when single fields failed, so every problem is reported at once: read the raw values defensively.
+      const absent = (v: unknown) => v === null || v === undefined;
+      if (absent(c.fanSpeedRpm) && absent(c.vfdHz))
+        ctx.addIssue({
+          code: "custom",
+          path: ["fanSpeedRpm"],
+          message: "give the fan speed in rpm (tachometer) or the drive frequency in Hz (VFD display); got neither",
+        });
+      if (typeof c.recordedAt === "string" && !Number.isNaN(Date.parse(c.recordedAt))) {
+        const at = Date.parse(c.recordedAt);
+        const now = Date.now();
+        if (at > now + MAX_FUTURE_MINUTES * 60_000) ctx.addIssue({ code: "custom", path: ["recordedAt"], message: `cannot be in the future; got ${c.recordedAt}` });
+        else if (at < now - MAX_BACKDATE_DAYS * 86_400_000)
+          ctx.addIssue({ code: "custom", path: ["recordedAt"], message: `cannot be more than ${MAX_BACKDATE_DAYS} days ago; got ${c.recordedAt}` });
+      }
+    },
+    { when: (payload) => typeof payload.value === "object" && payload.value !== null },
+  );
 export type ConditionsCreateInput = z.input<typeof conditionsCreateSchema>;
 export type ConditionsCreate = z.output<typeof conditionsCreateSchema>;

@@ -8,7 +8,7 @@
 import { z } from "zod";
 import type { InstrumentKind } from "@/db/schema";
 import { INSTRUMENT_KINDS, KIND_INFO } from "@/lib/instruments/kinds";
-import { boundedText, enumOf, nullableDate, nullableNumber } from "./fields";
+import { boundedText, enumOf, isCalendarDate, nullableDate, nullableNumber } from "./fields";
 
 /**
  * Plausible limits per kind, in the kind's SI unit: a range or floor beyond these is a typo or a unit
@@ -71,9 +71,32 @@ export const instrumentCreateSchema = z
     hoodCorrectionFactor: fields.hoodCorrectionFactor.default(null),
     notes: fields.notes.default(""),
   })
-  .superRefine((record, ctx) => {
-    for (const [path, message] of Object.entries(instrumentRecordProblems(record))) ctx.addIssue({ code: "custom", path: [path], message });
-  });
+  .superRefine(
+    (record, ctx) => {
+      // Runs even when some fields already failed, so every problem is reported at once; fields that
+      // failed on their own are left out of the record check rather than reported twice.
+      const failed = new Set(ctx.issues.map((i) => String(i.path?.[0] ?? "")));
+      const raw = record as Record<string, unknown>;
+      if (!(INSTRUMENT_KINDS as readonly unknown[]).includes(raw.kind)) return;
+      const num = (k: string) => (!failed.has(k) && typeof raw[k] === "number" ? (raw[k] as number) : null);
+      const day = (k: string) => (!failed.has(k) && typeof raw[k] === "string" && isCalendarDate(raw[k] as string) ? (raw[k] as string) : null);
+      const clean: InstrumentRecord = {
+        kind: raw.kind as InstrumentKind,
+        calibratedOn: day("calibratedOn"),
+        calibrationDueOn: day("calibrationDueOn"),
+        rangeMin: num("rangeMin"),
+        rangeMax: num("rangeMax"),
+        accuracyPct: num("accuracyPct"),
+        accuracyFloor: num("accuracyFloor"),
+        humidityAccuracyPct: num("humidityAccuracyPct"),
+        probeCoefficient: failed.has("probeCoefficient") ? 1 : num("probeCoefficient"),
+        probeHeadDiameterMm: num("probeHeadDiameterMm"),
+        hoodCorrectionFactor: num("hoodCorrectionFactor"),
+      };
+      for (const [path, message] of Object.entries(instrumentRecordProblems(clean))) if (!failed.has(path)) ctx.addIssue({ code: "custom", path: [path], message });
+    },
+    { when: (payload) => typeof payload.value === "object" && payload.value !== null },
+  );
 export type InstrumentCreateInput = z.input<typeof instrumentCreateSchema>;
 export type InstrumentCreate = z.output<typeof instrumentCreateSchema>;
 
