@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { buttonClasses } from "@/components/ui/button";
+import { forgetOfflinePages } from "@/lib/offline/service-worker";
 
 /** Ends the session, then shows the signed-out page. */
 export function SignOutButton({ variant = "header" }: { variant?: "header" | "primary" }) {
@@ -24,6 +25,7 @@ export function SignOutButton({ variant = "header" }: { variant?: "header" | "pr
             setBusy(false);
             return;
           }
+          await forgetOfflinePages().catch(() => undefined);
           router.replace("/sign-out");
           router.refresh();
         }}
