@@ -97,6 +97,7 @@ export class SyncQueue {
   private pausedUntil: number | null = null;
   private unsubscribeNetwork: (() => void) | null = null;
   private stopped = false;
+  private changes = 0;
 
   constructor(options: SyncQueueOptions) {
     this.store = options.store;
@@ -165,6 +166,16 @@ export class SyncQueue {
   /** Why the device could not keep the latest value, if it could not. */
   deviceError(key: string): string | null {
     return this.deviceErrors.get(key) ?? null;
+  }
+
+  /** Grows on every change of any record: a cheap snapshot for `useSyncExternalStore` over many records. */
+  get changeCount(): number {
+    return this.changes;
+  }
+
+  /** The records in memory whose key starts with `prefix` (e.g. the conditions recorded on this device for one system). */
+  recordsWithPrefix(prefix: string): DraftRecord[] {
+    return [...this.records.values()].filter((r) => r.key.startsWith(prefix)).sort((a, b) => a.changedAt - b.changedAt);
   }
 
   /** Every record with changes the server does not have yet (for a "N changes on this device" line). */
@@ -496,6 +507,7 @@ export class SyncQueue {
   }
 
   private notifyAll(): void {
+    this.changes += 1;
     for (const l of this.allListeners) l();
   }
 }

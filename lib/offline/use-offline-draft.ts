@@ -87,6 +87,8 @@ export function useOfflineDraft<T, R = unknown>(options: UseOfflineDraftOptions<
   });
   const held = useRef<((previous: T) => T)[]>([]);
   const [loadedKey, setLoadedKey] = useState<string | null>(null);
+  // Bumped by discard(): the record is read again (fresh from `initial`).
+  const [generation, setGeneration] = useState(0);
 
   const subscribe = useCallback((listener: () => void) => (queue ? queue.subscribe(key, listener) : () => {}), [queue, key]);
   const record = useSyncExternalStore(queue ? subscribe : noop, () => queue?.snapshot<T, R>(key), () => undefined) as DraftRecord<T, R> | undefined;
@@ -119,7 +121,7 @@ export function useOfflineDraft<T, R = unknown>(options: UseOfflineDraftOptions<
     return () => {
       live = false;
     };
-  }, [queue, key, apply]);
+  }, [queue, key, apply, generation]);
 
   const setValue = useCallback(
     (next: T | ((previous: T) => T)) => {
@@ -174,6 +176,7 @@ export function useOfflineDraft<T, R = unknown>(options: UseOfflineDraftOptions<
     discard: useCallback(async () => {
       await queue?.discard(key);
       setLoadedKey(null);
+      setGeneration((g) => g + 1);
     }, [queue, key]),
     ready,
     storage: queue?.storage ?? null,

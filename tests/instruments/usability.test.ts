@@ -108,3 +108,18 @@ describe("register to engine", () => {
     expect(instrumentName({ kind: "barometer", make: "", model: "", serial: "B-7" })).toBe("Barometer · SN B-7");
   });
 });
+
+describe("register values in the user's units", async () => {
+  const { formatAccuracy, formatRange, kindUnit } = await import("@/lib/instruments/units");
+  it("converts ranges as values and floors as differences (NIST SP 811: 1 in. w.c. = 249.08891 Pa; 1 K = 1.8 °F)", () => {
+    expect(formatRange({ kind: "manometer", rangeMin: -3735, rangeMax: 3735 }, "SI")).toBe("-3,735 to 3,735 Pa");
+    expect(formatRange({ kind: "manometer", rangeMin: -249.08891 * 15, rangeMax: 249.08891 * 15 }, "IP")).toBe("-15 to 15 in. w.c.");
+    expect(formatRange({ kind: "pitot_tube", rangeMin: null, rangeMax: 914.4 }, "IP")).toBe("up to 36 in.");
+    expect(formatAccuracy({ kind: "thermo_hygrometer", accuracyPct: null, accuracyFloor: 0.5, humidityAccuracyPct: 2 }, "IP")).toBe("±0.9 °F, ±2 % RH");
+    const f = kindUnit("thermo_hygrometer", "IP")!;
+    expect(f.fromDisplay(68)).toBeCloseTo(20, 9);
+    expect(f.fromDisplay(0.9, { delta: true })).toBeCloseTo(0.5, 9);
+    expect(kindUnit("tachometer", "IP")!.symbol).toBe("rpm");
+    expect(kindUnit("clamp_meter", "SI")!.fromDisplay(12.5)).toBe(12.5);
+  });
+});

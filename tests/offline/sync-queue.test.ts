@@ -338,3 +338,19 @@ describe("reading offline", () => {
     await expect(withDeviceCopy(q, "never-fetched", async () => Promise.reject(new TypeError("Failed to fetch")))).rejects.toThrow(TypeError);
   });
 });
+
+describe("device ids", () => {
+  it("makes RFC 9562 version-4 UUIDs even without crypto.randomUUID", async () => {
+    const { newId } = await import("@/lib/offline/ids");
+    const original = crypto.randomUUID;
+    // @ts-expect-error -- an insecure context has no randomUUID
+    crypto.randomUUID = undefined;
+    try {
+      const ids = new Set(Array.from({ length: 200 }, () => newId()));
+      expect(ids.size).toBe(200);
+      for (const id of ids) expect(id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
+    } finally {
+      crypto.randomUUID = original;
+    }
+  });
+});
