@@ -42,11 +42,18 @@ async function keep(page, files) {
   if (res && res.ok && !res.redirected) await (await caches.open(PAGE_CACHE)).put(page, res);
 }
 
+// Messages are handled one after another: a change of user must clear the pages before new ones are kept.
+let work = Promise.resolve();
+function inOrder(event, task) {
+  work = work.then(task, task).catch(() => undefined);
+  event.waitUntil(work);
+}
+
 self.addEventListener("message", (event) => {
   const data = event.data || {};
-  if (data.type === "owner" && typeof data.owner === "string") event.waitUntil(setOwner(data.owner));
-  else if (data.type === "keep" && typeof data.page === "string" && Array.isArray(data.files)) event.waitUntil(keep(data.page, data.files.filter((f) => typeof f === "string")));
-  else if (data.type === "forget-pages") event.waitUntil(caches.delete(PAGE_CACHE));
+  if (data.type === "owner" && typeof data.owner === "string") inOrder(event, () => setOwner(data.owner));
+  else if (data.type === "keep" && typeof data.page === "string" && Array.isArray(data.files)) inOrder(event, () => keep(data.page, data.files.filter((f) => typeof f === "string")));
+  else if (data.type === "forget-pages") inOrder(event, () => caches.delete(PAGE_CACHE));
 });
 
 function withTimeout(promise, ms) {

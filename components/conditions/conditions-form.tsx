@@ -49,10 +49,13 @@ export function ConditionsForm({
   system,
   units,
   onDone,
+  focusFirst = false,
 }: {
   projectId: string;
   system: ConditionsSystem;
   units: UnitSystem;
+  /** Put the cursor in the first field (the form was just opened by the technician). */
+  focusFirst?: boolean;
   /** Called after the record is queued (key of the queued record) or when the form is closed (null). */
   onDone: (queuedKey: string | null) => void;
 }) {
@@ -107,7 +110,7 @@ export function ConditionsForm({
     }
   }
 
-  const numberField = (name: keyof FormValues, apiField: string, label: string, unit: string, hint?: string) => {
+  const numberField = (name: keyof FormValues, apiField: string, label: string, unit: string, hint?: string, autoFocus = false) => {
     const id = `${formId}-${name}`;
     const error = errors[apiField];
     return (
@@ -121,6 +124,8 @@ export function ConditionsForm({
           inputMode="decimal"
           autoComplete="off"
           value={String(v[name])}
+          // Opened by a tap or Enter: the first field takes the cursor at once.
+          autoFocus={autoFocus}
           onChange={(e) => set(name, e.target.value as never)}
           aria-invalid={error ? true : undefined}
           aria-describedby={[hint ? `${id}-hint` : "", error ? `${id}-error` : ""].filter(Boolean).join(" ") || undefined}
@@ -141,8 +146,8 @@ export function ConditionsForm({
   };
 
   const speedFields = [
-    numberField("fanSpeedRpm", "fanSpeedRpm", "Fan speed", "rpm", system.fanSpeedRpm ? `Scheduled ${system.fanSpeedRpm} rpm; read it at the fan shaft.` : "Read it at the fan shaft."),
-    numberField("vfdHz", "vfdHz", "Drive frequency", "Hz", system.hasVfd ? "From the drive's display." : "Only if the fan runs on a variable-frequency drive."),
+    numberField("fanSpeedRpm", "fanSpeedRpm", "Fan speed", "rpm", system.fanSpeedRpm ? `Scheduled ${system.fanSpeedRpm} rpm; read it at the fan shaft.` : "Read it at the fan shaft.", focusFirst && !system.hasVfd),
+    numberField("vfdHz", "vfdHz", "Drive frequency", "Hz", system.hasVfd ? "From the drive's display." : "Only if the fan runs on a variable-frequency drive.", focusFirst && system.hasVfd),
   ];
 
   return (

@@ -77,16 +77,22 @@ export function ConditionsPicker({ projectId, system, units, canRecord, initial,
   const open = formOpen || draftWaiting;
   const fmtPa = (pa: number) => formatQuantity(units, "pressure", pa);
 
-  // Once the server has a record made on this device, the list shows it: refresh it and forget the device copy.
-  const savedKeys = device.filter((r) => r.state === "saved").map((r) => r.key);
-  useEffect(() => {
-    if (!queue || savedKeys.length === 0) return;
-    void client.invalidateQueries({ queryKey: fieldKeys.conditions(projectId, system.id) }).then(() => Promise.all(savedKeys.map((k) => queue.discard(k))));
-  }, [queue, client, projectId, system.id, savedKeys.join("|")]); // eslint-disable-line react-hooks/exhaustive-deps -- keyed by the saved records
-
   const serverList = query.data?.data ?? initial ?? [];
-  const pending = device.filter((r) => r.state !== "saved" && !serverList.some((c) => c.id === r.value.id));
-  const all: PickedConditions[] = [...pending.map((r) => fromDevice(r.value)), ...serverList.map(fromServer)].sort((a, b) => b.recordedAt.localeCompare(a.recordedAt));
+  const listed = new Set(serverList.map((c) => c.id));
+  // Records made on this device stay shown, with where they are, until the server's list includes them.
+  const onDevice = device.filter((r) => !listed.has(r.value.id));
+  const savedUnlisted = onDevice.filter((r) => r.state === "saved").map((r) => r.key).join("|");
+  useEffect(() => {
+    if (savedUnlisted) void client.invalidateQueries({ queryKey: fieldKeys.conditions(projectId, system.id) });
+  }, [client, projectId, system.id, savedUnlisted]);
+  const listedKeys = device.filter((r) => listed.has(r.value.id) && r.state === "saved").map((r) => r.key).join("|");
+  useEffect(() => {
+    if (queue && listedKeys) for (const key of listedKeys.split("|")) void queue.discard(key);
+  }, [queue, listedKeys]);
+
+  const all: PickedConditions[] = [...onDevice.map((r) => ({ ...fromDevice(r.value), onServer: r.state === "saved" })), ...serverList.map(fromServer)].sort((a, b) =>
+    b.recordedAt.localeCompare(a.recordedAt),
+  );
   const current = all[0] ?? null;
   const chosen = value === undefined ? current : (all.find((c) => c.id === value) ?? null);
 
@@ -108,8 +114,8 @@ export function ConditionsPicker({ projectId, system, units, canRecord, initial,
       </div>
 
       {current ? (
-        <div className="rounded-card border border-line bg-paper p-3">
-          <p className="text-sm font-semibold text-ink-muted">Current</p>
+        <div role="group" aria-label="Current conditions" className="rounded-card border border-line bg-paper p-3">
+          <p className="text-sm font-semibold text-ink-muted">Current{current.onServer ? "" : " · on this device until the server has it"}</p>
           <p className="text-lg">{summarizeConditions(current, fmtPa)}</p>
           <p className="text-sm text-ink-soft">
             Recorded <LocalTime iso={current.recordedAt} />
@@ -122,9 +128,9 @@ export function ConditionsPicker({ projectId, system, units, canRecord, initial,
         </p>
       )}
 
-      {pending.map((r) => (
+      {onDevice.map((r) => (
         <div key={r.key} className="grid gap-1">
-          <p className="text-sm">{summarizeConditions(fromDevice(r.value), fmtPa)}</p>
+          {r.value.id !== current?.id && <p className="text-sm">{summarizeConditions(fromDevice(r.value), fmtPa)}</p>}
           <SyncStatus syncState={r.state} error={r.error} nextAttemptAt={r.nextAttemptAt} online={queue?.isOnline()} retry={() => queue?.retry(r.key)} what="these conditions" />
         </div>
       ))}
@@ -164,7 +170,7 @@ export function ConditionsPicker({ projectId, system, units, canRecord, initial,
       {canRecord &&
         (open ? (
           <div className="rounded-card border-2 border-accent bg-paper-raised p-3">
-            <ConditionsForm projectId={projectId} system={system} units={units} onDone={() => setFormOpen(false)} />
+            <ConditionsForm projectId={projectId} system={system} units={units} focusFirst={formOpen} onDone={() => setFormOpen(false)} />
           </div>
         ) : (
           <div>

@@ -217,20 +217,18 @@ export function InstrumentForm({ units, instrument, kindLocked = false }: { unit
             value={values.kind}
             onChange={set("kind")}
             disabled={kindLocked}
-            aria-describedby={kindLocked ? `${formId}-kind-hint` : undefined}
+            aria-describedby={`${formId}-kind-hint`}
             className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-lg"
           >
             {INSTRUMENT_KINDS.map((k) => (
               <option key={k} value={k}>
-                {KIND_INFO[k].label} — {KIND_INFO[k].use}
+                {KIND_INFO[k].label}
               </option>
             ))}
           </select>
-          {kindLocked && (
-            <p id={`${formId}-kind-hint`} className="mt-1 text-sm text-ink-soft">
-              Used for readings, so its kind stays. Add a new entry for another instrument.
-            </p>
-          )}
+          <p id={`${formId}-kind-hint`} className="mt-1 text-sm text-ink-soft">
+            {kindLocked ? "Used for readings, so its kind stays. Add a new entry for another instrument." : `For ${info.use}.`}
+          </p>
           {errors.kind && <p className="mt-1 text-sm font-semibold text-fault">{errors.kind}</p>}
         </div>
         {field("serial", "Serial number", { required: true, hint: "As engraved or labelled on the instrument." })}

@@ -64,7 +64,7 @@ export function InstrumentTable({ instruments, units, canEdit }: { instruments: 
             </div>
           ),
         }),
-        helper.accessor("serial", { header: "Serial", sortFn: "alphanumeric", cell: ({ getValue }) => <span className="num font-semibold">{getValue()}</span> }),
+        helper.accessor("serial", { header: "Serial", sortFn: "alphanumeric", cell: ({ getValue }) => <span className="num whitespace-nowrap font-semibold">{getValue()}</span> }),
         helper.accessor((i) => i.calibrationDueOn ?? "", {
           id: "due",
           header: "Calibration due",

@@ -12,7 +12,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "manometer",
     make: "Halvard Instruments",
-    model: "HM-640 micromanometer",
+    model: "HM-640",
     serial: "MM-30418",
     certificateNumber: "HLC-26-05117",
     calibratedOn: "2026-05-12",
@@ -25,7 +25,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "pitot_tube",
     make: "Corvane",
-    model: "PS-900 pitot-static tube",
+    model: "PS-900",
     serial: "PT-0931",
     certificateNumber: "",
     calibratedOn: "2026-01-20",
@@ -38,7 +38,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "pitot_tube",
     make: "Corvane",
-    model: "PS-1500 pitot-static tube",
+    model: "PS-1500",
     serial: "PT-1522",
     certificateNumber: "",
     calibratedOn: "2026-01-20",
@@ -50,7 +50,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "capture_hood",
     make: "Tessic",
-    model: "AH-12 capture hood",
+    model: "AH-12",
     serial: "CH-7710",
     certificateNumber: "TSC-4471",
     calibratedOn: "2026-02-03",
@@ -65,7 +65,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "thermal_anemometer",
     make: "Tessic",
-    model: "TA-3 thermal anemometer",
+    model: "TA-3",
     serial: "TA-5521",
     certificateNumber: "TSC-3902",
     calibratedOn: "2025-12-14",
@@ -78,7 +78,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "vane_anemometer",
     make: "Corvane",
-    model: "VA-100 vane anemometer",
+    model: "VA-100",
     serial: "VA-7702",
     certificateNumber: "CVL-25-0880",
     calibratedOn: "2025-08-20",
@@ -92,7 +92,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "thermo_hygrometer",
     make: "Halvard Instruments",
-    model: "HT-20 thermo-hygrometer",
+    model: "HT-20",
     serial: "TH-2209",
     certificateNumber: "HLC-26-06031",
     calibratedOn: "2026-06-02",
@@ -105,7 +105,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "barometer",
     make: "Halvard Instruments",
-    model: "HB-5 barometer",
+    model: "HB-5",
     serial: "BA-1174",
     certificateNumber: "HLC-26-04102",
     calibratedOn: "2026-04-08",
@@ -117,7 +117,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "tachometer",
     make: "Tessic",
-    model: "OT-2 optical tachometer",
+    model: "OT-2",
     serial: "TC-4410",
     certificateNumber: "TSC-2210",
     calibratedOn: "2026-03-01",
@@ -130,7 +130,7 @@ export const DEMO_INSTRUMENTS = [
   {
     kind: "clamp_meter",
     make: "Halvard Instruments",
-    model: "HC-400 clamp meter",
+    model: "HC-400",
     serial: "CM-8836",
     certificateNumber: "",
     calibratedOn: null,

@@ -6,9 +6,10 @@
  * that serves pages already seen when the network is gone, and nudges the queue when the page comes
  * back into view.
  */
+import { usePathname } from "next/navigation";
 import { createContext, useContext, useEffect, useState, useSyncExternalStore } from "react";
 import { openDraftStore } from "./draft-store";
-import { registerOfflinePages } from "./service-worker";
+import { keepPageForOffline, registerOfflinePages } from "./service-worker";
 import { browserNetwork, SyncQueue } from "./sync-queue";
 
 /** undefined: no provider above (a bug); null: the queue is still opening. */
@@ -43,6 +44,13 @@ export function OfflineProvider({ owner, children }: { owner: string; children: 
       setQueue(null);
     };
   }, [owner]);
+
+  // Each page reached by a client-side navigation is kept too (the first one is kept on registration).
+  const pathname = usePathname();
+  const [firstPath] = useState(pathname);
+  useEffect(() => {
+    if (pathname !== firstPath) keepPageForOffline(window.location.href);
+  }, [pathname, firstPath]);
 
   useEffect(() => {
     if (!queue || queue.storage === "device") return;

@@ -178,9 +178,12 @@ export class SyncQueue {
     return [...this.records.values()].filter((r) => r.key.startsWith(prefix)).sort((a, b) => a.changedAt - b.changedAt);
   }
 
-  /** Every record with changes the server does not have yet (for a "N changes on this device" line). */
+  /**
+   * Every record with changes the server does not have yet and a way to send them (for a "N entries on
+   * this device" line). Forms still being typed (no request yet) are not counted: nothing waits to be sent.
+   */
   pending(): DraftRecord[] {
-    return [...this.records.values()].filter((r) => r.dirty).sort((a, b) => a.changedAt - b.changedAt);
+    return [...this.records.values()].filter((r) => r.dirty && r.request !== null).sort((a, b) => a.changedAt - b.changedAt);
   }
 
   subscribe(key: string, listener: () => void): () => void {

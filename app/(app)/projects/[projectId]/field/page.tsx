@@ -108,13 +108,13 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
                           </div>
                           <div className="flex flex-wrap gap-2 lg:justify-end">
                             {latest && (
-                              <Link href={fieldRoutes.traverse(project.id, latest.id)} className={buttonClasses(editable ? "primary" : "secondary")}>
+                              <Link prefetch={false} href={fieldRoutes.traverse(project.id, latest.id)} className={buttonClasses(editable ? "primary" : "secondary")}>
                                 {editable ? "Continue" : "Open"}
                                 <span className="sr-only"> the traverse of {row.section.tag}</span>
                               </Link>
                             )}
                             {!editable && (
-                              <Link href={fieldRoutes.newTraverse(project.id, row.section.id)} className={buttonClasses(latest ? "secondary" : "primary")}>
+                              <Link prefetch={false} href={fieldRoutes.newTraverse(project.id, row.section.id)} className={buttonClasses(latest ? "secondary" : "primary")}>
                                 {latest ? "Re-traverse" : "Start traverse"}
                                 <span className="sr-only"> of {row.section.tag}</span>
                               </Link>
@@ -148,7 +148,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
                       {counts.terminalUnits > 0 && `${counts.terminalUnits} terminal ${counts.terminalUnits === 1 ? "unit" : "units"}`}
                     </p>
                   )}
-                  <Link href={fieldRoutes.terminals(project.id)} className={buttonClasses("secondary", "mt-2")}>
+                  <Link prefetch={false} href={fieldRoutes.terminals(project.id)} className={buttonClasses("secondary", "mt-2")}>
                     Terminal readings<span className="sr-only"> of {system.tag}</span>
                   </Link>
                 </div>
@@ -165,7 +165,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
           <ul className="grid gap-3 md:grid-cols-2">
             {instrumentsInUse.map(({ instrument, lastUsedAt, uses }) => (
               <li key={instrument.id} className="rounded-card border border-line p-3">
-                <Link href={`/instruments/${instrument.id}`} className="font-semibold text-accent-strong underline-offset-4 hover:underline">
+                <Link href={fieldRoutes.instrument(instrument.id)} className="inline-flex min-h-touch items-center font-semibold text-accent-strong underline underline-offset-4">
                   {instrumentName(instrument)}
                 </Link>
                 <div className="mt-1">
