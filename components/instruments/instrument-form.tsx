@@ -227,7 +227,7 @@ export function InstrumentForm({ units, instrument, kindLocked = false }: { unit
             ))}
           </select>
           <p id={`${formId}-kind-hint`} className="mt-1 text-sm text-ink-soft">
-            {kindLocked ? "Used for readings, so its kind stays. Add a new entry for another instrument." : `For ${info.use}.`}
+            {kindLocked ? "Used for readings, so its kind stays. Add a new entry for another instrument." : `Used for ${info.use}.`}
           </p>
           {errors.kind && <p className="mt-1 text-sm font-semibold text-fault">{errors.kind}</p>}
         </div>

@@ -11,7 +11,7 @@ export function SyncStatusBanner() {
     storage === "memory"
       ? "This browser cannot keep entries on the device: keep this page open until everything shows Saved."
       : count > 0
-        ? `${count} ${count === 1 ? "entry is" : "entries are"} saved on this device${online ? " and being sent." : ". No network: they are sent when the connection returns."}`
+        ? `${count} ${count === 1 ? "entry is" : "entries are"} saved on this device${online ? " and being sent." : `. No network: ${count === 1 ? "it is" : "they are"} sent when the connection returns.`}`
         : online
           ? "Online. Everything typed here is kept on this device first, then saved to the server."
           : "No network. Keep working: everything you type is kept on this device and sent when the connection returns.";

@@ -98,21 +98,21 @@ function useSecondsUntil(at: number | null | undefined): number | null {
   return at ? Math.max(0, Math.ceil((at - now) / 1000)) : null;
 }
 
-/** One sentence that says where the entry is and what happens next. */
+/** One sentence, after the status word, that says what happens next. */
 export function syncSentence(p: Pick<SyncStatusProps, "syncState" | "error" | "online" | "what" | "notSentYet">): string {
   const what = p.what ?? "your entries";
   switch (p.syncState) {
     case "saved-on-device":
-      if (p.notSentYet) return `Saved on this device; ${what} are sent when you record them.`;
-      if (p.online === false) return `Saved on this device. No network: ${what} are sent when the connection returns.`;
-      if (p.error) return `Saved on this device. ${p.error.message} Trying again.`;
-      return `Saved on this device; sending ${what} shortly.`;
+      if (p.notSentYet) return `Kept here as you type; ${what} go to the server when you record them.`;
+      if (p.online === false) return `No network: ${what} are sent when the connection returns.`;
+      if (p.error) return `${p.error.message} Trying again.`;
+      return `Sending ${what} shortly.`;
     case "saving":
       return `Sending ${what} to the server.`;
     case "saved":
-      return `Saved: the server has ${what}.`;
+      return `The server has ${what}.`;
     case "conflict":
-      return `Someone saved a different version first. Nothing was overwritten: choose which to keep.`;
+      return "Someone saved a different version first. Nothing was overwritten: choose which to keep.";
     case "error":
       return `${p.error?.message ?? "The server refused the change."} ${what.charAt(0).toUpperCase() + what.slice(1)} stay on this device.`;
   }
@@ -142,18 +142,21 @@ export function SyncStatus(props: SyncStatusProps) {
   );
 }
 
-/** The header's line: how many entries wait on this device for the network, if any. */
+/** The header's short line: how many entries wait on this device for the server, if any. */
 export function PendingChanges() {
   const { count, online, storage } = usePendingChanges();
   if (count === 0 && storage !== "memory") return null;
-  const text =
-    count === 0
-      ? "This browser cannot keep entries on the device"
-      : `${count} ${count === 1 ? "entry" : "entries"} on this device${online ? ", sending" : ", waiting for the network"}`;
   return (
     <p role="status" aria-live="polite" className="flex min-h-touch items-center gap-2 rounded-card bg-caution-soft px-3 text-sm font-semibold text-ink">
       <SyncIcon state={count === 0 ? "error" : "saved-on-device"} size={18} />
-      {text}
+      {count === 0 ? (
+        "Not kept on this device"
+      ) : (
+        <>
+          {count} on this device
+          <span className="sr-only">{online ? ", being sent" : ", waiting for the network"}</span>
+        </>
+      )}
     </p>
   );
 }

@@ -27,7 +27,7 @@ export const HAZARDS: readonly Hazard[] = [
   {
     id: "rotating",
     title: "Fans and belts",
-    text: "Fans and belts: lock out and tag out before opening an access door near rotating equipment.",
+    text: "Before opening an access door near a fan or its belts, lock out and tag out the drive: rotating equipment can start without warning.",
   },
   {
     id: "hot",

@@ -59,7 +59,7 @@ const info = (kind: InstrumentKind, label: string, use: string, rest: Partial<In
 
 export const KIND_INFO: Readonly<Record<InstrumentKind, InstrumentKindInfo>> = {
   manometer: info("manometer", "Manometer", "velocity and static pressure", { measure: { quantity: "pressure" } }),
-  pitot_tube: info("pitot_tube", "Pitot-static tube", "traverse probe, read with a manometer", {
+  pitot_tube: info("pitot_tube", "Pitot-static tube", "traverses, read with a manometer", {
     measure: { quantity: "dimension" },
     rangeLabel: "Usable insertion length",
     hasAccuracyPct: false,
