@@ -213,3 +213,23 @@ test("conditions typed without signal survive a reload and reach the server when
   expect(list.filter((c) => c.fanSpeedRpm === 1395)).toEqual([expect.objectContaining({ notes: "Recorded without signal on the roof." })]);
   await api.dispose();
 });
+
+test("today's kit: a past-due anemometer can be picked only with a reason in view, and the kit stays on the tablet", async ({ page }) => {
+  await openFieldWork(page);
+  const kit = page.getByRole("region", { name: "Today's kit on this tablet" });
+  const reading = kit.getByRole("group", { name: "Manometer or anemometer" });
+  await expect(reading.getByText("SN VA-7702")).toBeVisible();
+  await reading.getByRole("radio", { name: /SN VA-7702/ }).check();
+  await expect(reading.getByText("Calibration past due since 2 Oct 2026 (", { exact: false }).first()).toBeVisible();
+  await expect(reading.getByText("(calibration past due since 2 Oct 2026")).toBeVisible();
+  const reason = reading.getByLabel(/Why is VA-7702 used\?/);
+  await reason.fill("Only vane anemometer on site; checked against the hood at SD-101.");
+  await kit.getByRole("group", { name: "Pitot tube" }).getByRole("radio", { name: /SN PT-0931/ }).check();
+  await page.waitForTimeout(300); // the device write follows the change by a few milliseconds
+  await page.reload();
+  const again = page.getByRole("region", { name: "Today's kit on this tablet" });
+  await expect(again.getByRole("group", { name: "Manometer or anemometer" }).getByRole("radio", { name: /SN VA-7702/ })).toBeChecked();
+  await expect(again.getByRole("group", { name: "Pitot tube" }).getByRole("radio", { name: /SN PT-0931/ })).toBeChecked();
+  await expect(again.getByLabel(/Why is VA-7702 used\?/)).toHaveValue("Only vane anemometer on site; checked against the hood at SD-101.");
+  await expectNoSeriousViolations(page);
+});

@@ -11,6 +11,7 @@ import type { ConditionsJson, InstrumentJson } from "@/lib/server/field-json";
 import type { InstrumentKind } from "@/db/schema";
 import { useSyncQueue } from "@/lib/offline/offline-context";
 import { withDeviceCopy } from "@/lib/offline/read-cache";
+import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
 import type { SyncQueue } from "@/lib/offline/sync-queue";
 import type { DraftRecord, SyncRequest } from "@/lib/offline/types";
 import type { ConditionsCreateInput } from "@/lib/validation/conditions";
@@ -144,4 +145,36 @@ export function useDeviceConditions(systemId: string): DraftRecord<ConditionsBod
     () => 0,
   );
   return (queue?.recordsWithPrefix(conditionsKeyPrefix(systemId)) ?? []) as DraftRecord<ConditionsBody, Conditions>[];
+}
+
+/**
+ * The instruments a technician carries today on a project, chosen once on the Field work screen and
+ * kept on this device only (not sent): the traverse and terminal screens start from them.
+ */
+export interface FieldKit {
+  /** Manometer (with a pitot tube) or anemometer. */
+  readingInstrumentId: string | null;
+  probeInstrumentId: string | null;
+  /** Thermo-hygrometer for dry-bulb and humidity. */
+  airInstrumentId: string | null;
+  barometerInstrumentId: string | null;
+  hoodInstrumentId: string | null;
+  /** Why an instrument past its due date is carried, offered as the default reason on submission. */
+  overdueReason: string;
+}
+
+export const EMPTY_FIELD_KIT: FieldKit = {
+  readingInstrumentId: null,
+  probeInstrumentId: null,
+  airInstrumentId: null,
+  barometerInstrumentId: null,
+  hoodInstrumentId: null,
+  overdueReason: "",
+};
+
+export const fieldKitKey = (projectId: string) => `kit:${projectId}`;
+
+/** Today's kit for a project, on this device: `{ value, setValue, ready }` as useOfflineDraft gives them. */
+export function useFieldKit(projectId: string) {
+  return useOfflineDraft<FieldKit>({ key: fieldKitKey(projectId), initial: EMPTY_FIELD_KIT });
 }

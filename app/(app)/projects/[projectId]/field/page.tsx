@@ -3,6 +3,7 @@ import Link from "next/link";
 import { ductSize, pct } from "@/components/airflow/format";
 import { ConditionsPicker } from "@/components/conditions/conditions-picker";
 import { CalibrationStatus } from "@/components/instruments/calibration-status";
+import { FieldKit } from "@/components/instruments/field-kit";
 import { SyncStatusBanner } from "@/components/offline/sync-status-banner";
 import { buttonClasses } from "@/components/ui/button";
 import { Card, EmptyState } from "@/components/ui/card";
@@ -178,6 +179,9 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
             ))}
           </ul>
         )}
+        <div className="mt-gutter border-t border-line pt-gutter">
+          <FieldKit projectId={project.id} />
+        </div>
       </Card>
     </main>
   );
