@@ -35,20 +35,39 @@ export async function findInstrumentBySerial({ kind, serial, exceptId }: { kind:
   return rows.find((r) => r.id !== exceptId) ?? null;
 }
 
-export async function createInstrument({ values, createdBy }: { values: InstrumentValues; createdBy: string }): Promise<Instrument> {
-  const db = await getDb();
-  const [row] = await db.insert(instruments).values({ ...values, createdBy }).returning();
-  return row!;
+/** A unique index refused the row (PostgreSQL 23505), however the driver wraps the error. */
+function isUniqueViolation(err: unknown): boolean {
+  for (let e: unknown = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    if ((e as { code?: unknown }).code === "23505") return true;
+  }
+  return false;
 }
 
-export async function updateInstrument({ id, values }: { id: string; values: Partial<InstrumentValues> & { retiredAt?: Date | null } }): Promise<Instrument | null> {
+/** Adds an instrument; "duplicate" when another of the same kind has this serial (checked by the unique index, so two tablets at once cannot both add it). */
+export async function createInstrument({ values, createdBy }: { values: InstrumentValues; createdBy: string }): Promise<Instrument | "duplicate"> {
   const db = await getDb();
-  const [row] = await db
-    .update(instruments)
-    .set({ ...values, updatedAt: new Date() })
-    .where(eq(instruments.id, id))
-    .returning();
-  return row ?? null;
+  try {
+    const [row] = await db.insert(instruments).values({ ...values, createdBy }).returning();
+    return row!;
+  } catch (err) {
+    if (isUniqueViolation(err)) return "duplicate";
+    throw err;
+  }
+}
+
+export async function updateInstrument({ id, values }: { id: string; values: Partial<InstrumentValues> & { retiredAt?: Date | null } }): Promise<Instrument | null | "duplicate"> {
+  const db = await getDb();
+  try {
+    const [row] = await db
+      .update(instruments)
+      .set({ ...values, updatedAt: new Date() })
+      .where(eq(instruments.id, id))
+      .returning();
+    return row ?? null;
+  } catch (err) {
+    if (isUniqueViolation(err)) return "duplicate";
+    throw err;
+  }
 }
 
 export interface InstrumentUsage {

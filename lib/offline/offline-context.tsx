@@ -65,6 +65,11 @@ export function OfflineProvider({ owner, children }: { owner: string; children: 
   return <OfflineContext.Provider value={queue}>{children}</OfflineContext.Provider>;
 }
 
+/** Provides an existing queue (tests, or an embedding that manages its own queue). */
+export function OfflineQueueProvider({ queue, children }: { queue: SyncQueue | null; children: React.ReactNode }) {
+  return <OfflineContext.Provider value={queue}>{children}</OfflineContext.Provider>;
+}
+
 /** The page's sync queue, or null for the few milliseconds it takes to open. Throws outside an OfflineProvider. */
 export function useSyncQueue(): SyncQueue | null {
   const queue = useContext(OfflineContext);

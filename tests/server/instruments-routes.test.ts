@@ -94,6 +94,16 @@ describe("POST /api/v1/instruments", () => {
     expect(dup.body.error.fields.serial).toContain("already in the register");
   });
 
+  it("refuses the second of two simultaneous adds of one serial with 409, not 500", async () => {
+    await as("tech@example.test");
+    const body = { ...manometer, serial: "RACE-1" };
+    const [a, b] = await Promise.all([
+      callRoute(list.POST, { method: "POST", path: "/api/v1/instruments", body }),
+      callRoute(list.POST, { method: "POST", path: "/api/v1/instruments", body: { ...body, serial: "race-1" } }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+  });
+
   it("lets a site administrator add one", async () => {
     await as("admin@example.test");
     const res = await callRoute(list.POST, { method: "POST", path: "/api/v1/instruments", body: { kind: "tachometer", serial: "T-TACH-1", rangeMin: 10, rangeMax: 99_999 } });

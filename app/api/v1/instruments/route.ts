@@ -33,6 +33,8 @@ export const POST = defineRoute({}, async ({ req, user }) => {
       serial: `is already in the register (${duplicate.serial}); edit that entry instead`,
     });
   const row = await createInstrument({ values, createdBy: user.id });
+  if (row === "duplicate")
+    return jsonError(409, `The register already has a ${values.kind.replace(/_/g, " ")} with serial ${values.serial}.`, { serial: "is already in the register; edit that entry instead" });
   await recordAudit({ userId: user.id, projectId: null, action: "instrument.created", entityType: "instrument", entityId: row.id, detail: { after: values } });
   return NextResponse.json({ instrument: instrumentJson(row) }, { status: 201 });
 });

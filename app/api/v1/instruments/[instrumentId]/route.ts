@@ -55,6 +55,7 @@ export const PATCH = defineRoute({}, async ({ req, params, user }) => {
 
   const retiredAt = retired === undefined ? undefined : retired ? (row.retiredAt ?? new Date()) : null;
   const updated = await updateInstrument({ id: row.id, values: { ...patch, ...(retiredAt !== undefined ? { retiredAt } : {}) } });
+  if (updated === "duplicate") return jsonError(409, `The register already has a ${merged.kind.replace(/_/g, " ")} with serial ${merged.serial}.`, { serial: "is already in the register" });
   if (!updated) return jsonError(404, NOT_FOUND);
 
   const before: Record<string, unknown> = {};
