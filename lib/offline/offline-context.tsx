@@ -66,7 +66,7 @@ export function OfflineProvider({ owner, children }: { owner: string; children: 
 }
 
 /** Provides an existing queue (tests, or an embedding that manages its own queue). */
-export function OfflineQueueProvider({ queue, children }: { queue: SyncQueue | null; children: React.ReactNode }) {
+export function OfflineQueueProvider({ queue, children }: { queue: SyncQueue | null; children?: React.ReactNode }) {
   return <OfflineContext.Provider value={queue}>{children}</OfflineContext.Provider>;
 }
 

@@ -42,7 +42,7 @@ async function setup(options: { online?: boolean; dbName?: string } = {}) {
 const put = (readings: Grid): SyncRequest => ({ method: "PUT", url: "/api/v1/projects/p/traverses/t1/readings", body: { readings }, versionField: "version", resourceField: "traverse" });
 
 function renderDraft(queue: SyncQueue, initial: Grid, version: number) {
-  const wrapper = ({ children }: { children: ReactNode }) => createElement(OfflineQueueProvider, { queue, children });
+  const wrapper = ({ children }: { children: ReactNode }) => createElement(OfflineQueueProvider, { queue }, children);
   return renderHook(
     () =>
       useOfflineDraft<Grid, Traverse>({
