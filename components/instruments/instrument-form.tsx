@@ -149,7 +149,7 @@ export function InstrumentForm({ units, instrument, kindLocked = false }: { unit
     setErrors({});
     try {
       const saved = instrument
-        ? await update.mutateAsync({ ...parsed.data!, ...(kindLocked ? { kind: undefined } : {}) })
+        ? await update.mutateAsync({ ...parsed.data!, ...(kindLocked ? { kind: undefined } : {}), ifUpdatedAt: instrument.updatedAt })
         : await create.mutateAsync(parsed.data!);
       router.push(`/instruments?saved=${encodeURIComponent(saved.instrument.serial)}`);
       router.refresh();

@@ -119,6 +119,11 @@ export const instrumentPatchSchema = z.strictObject({
   hoodCorrectionFactor: fields.hoodCorrectionFactor.optional(),
   notes: fields.notes.optional(),
   retired: z.boolean({ error: "must be true (retire it) or false (back in service)" }).optional(),
+  /**
+   * The `updatedAt` of the instrument as the editor last saw it: when someone changed it since, the
+   * change is refused (409, with the current instrument) instead of overwriting theirs.
+   */
+  ifUpdatedAt: z.string({ error: "must be the instrument's updatedAt as last read (an ISO date and time)" }).max(40).optional(),
 });
 export type InstrumentPatch = z.output<typeof instrumentPatchSchema>;
 

@@ -179,6 +179,20 @@ describe("GET, PATCH and DELETE /api/v1/instruments/{instrumentId}", () => {
     });
   });
 
+  it("refuses a change based on a stale read (409 with the current entry) and saves nothing", async () => {
+    await as("tech@example.test");
+    const read = await callRoute(one.GET, { params: { instrumentId: id } });
+    const seen = read.body.instrument.updatedAt as string;
+    const first = await callRoute(one.PATCH, { method: "PATCH", params: { instrumentId: id }, body: { notes: "Dropped once; checked against MM-30418.", ifUpdatedAt: seen } });
+    expect(first.status).toBe(200);
+    const stale = await callRoute(one.PATCH, { method: "PATCH", params: { instrumentId: id }, body: { notes: "Overwrite attempt", ifUpdatedAt: seen } });
+    expect(stale.status).toBe(409);
+    expect(stale.body.instrument.notes).toBe("Dropped once; checked against MM-30418.");
+    expect(stale.body.error.message).toContain("nothing was saved");
+    const after = await callRoute(one.GET, { params: { instrumentId: id } });
+    expect(after.body.instrument.notes).toBe("Dropped once; checked against MM-30418.");
+  });
+
   it("checks the record as a whole: a change that breaks it names the field, even one not sent", async () => {
     await as("tech@example.test");
     const res = await callRoute(one.PATCH, { method: "PATCH", params: { instrumentId: id }, body: { rangeMin: 5000 } });

@@ -54,7 +54,8 @@ export const fieldOperations: Operation[] = [
     path: "/api/v1/instruments/{instrumentId}",
     tag: "Instrument register",
     summary: "Change an instrument, retire it (`retired: true`) or return it to service (`retired: false`)",
-    description: "The result must still be a valid record. A used instrument keeps its kind (409). Before and after go to the audit log.",
+    description:
+      "The result must still be a valid record. A used instrument keeps its kind (409). With `ifUpdatedAt` (the `updatedAt` last read), a change made by someone else meanwhile answers 409 `{error, instrument: current}` and nothing is saved. Before and after go to the audit log.",
     roles: KEEPERS,
     body: instrumentPatchSchema,
     responses: { "200": { description: "`{instrument}`" } },

@@ -33,7 +33,12 @@ export const PATCH = defineRoute({}, async ({ req, params, user }) => {
   if (!row) return jsonError(404, NOT_FOUND);
   const body = await parseBody(req, instrumentPatchSchema);
   if (!body.ok) return body.response;
-  const { retired, ...patch } = body.value;
+  const { retired, ifUpdatedAt, ...patch } = body.value;
+  if (ifUpdatedAt !== undefined && Date.parse(ifUpdatedAt) !== row.updatedAt.getTime())
+    return NextResponse.json(
+      { error: { message: "Someone changed this instrument after you opened it; nothing was saved. Compare with the current entry and try again." }, instrument: instrumentJson(row) },
+      { status: 409 },
+    );
 
   const merged = { ...row, ...patch };
   const problems = instrumentRecordProblems(merged);
