@@ -79,7 +79,7 @@ export function InstrumentPicker({ kinds, label, value, onChange, onDate, overdu
           />
         </div>
       )}
-      <div className="grid gap-2 sm:grid-cols-2">
+      <div className="grid items-start gap-2 sm:grid-cols-2">
         {allowNone && (
           <Choice name={id} checked={value === null} onSelect={() => onChange(null)}>
             <span className="font-semibold">None</span>
