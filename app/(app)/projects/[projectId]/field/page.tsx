@@ -44,7 +44,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <SyncStatusBanner />
       <Cautions layout="tiles" />
-      {systems.length === 0 && <EmptyState>No air systems in this project yet. The engineer adds them from the design schedule; then they appear here.</EmptyState>}
+      {systems.length === 0 && <EmptyState>No air systems in this project yet: the project&apos;s engineer sets them up in Set-up before field work can start.</EmptyState>}
 
       {systems.map(({ system, sections }) => {
         const counts = terminalCounts.get(system.id) ?? { outlets: 0, terminalUnits: 0 };
@@ -67,7 +67,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
               <div className="grid content-start gap-4">
                 <h3 className="text-lg font-semibold">Duct sections</h3>
                 {sections.length === 0 ? (
-                  <EmptyState>No duct sections yet for {system.tag}. The engineer adds the duct tree; then each section can be traversed here.</EmptyState>
+                  <EmptyState>No duct sections in {system.tag} yet: the project&apos;s engineer adds them in Set-up before traverses can start.</EmptyState>
                 ) : (
                   <ul className="divide-y divide-line rounded-card border border-line">
                     {sections.map((row) => {
