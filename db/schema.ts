@@ -249,22 +249,35 @@ export const instruments = pgTable(
     serial: text("serial").notNull(),
     calibratedOn: date("calibrated_on", { mode: "string" }),
     calibrationDueOn: date("calibration_due_on", { mode: "string" }),
+    /**
+     * The calibration laboratory's certificate number, as printed on the certificate. The certificate
+     * file itself (an upload) will live in its own table pointing at this row; nothing stores it yet.
+     */
+    certificateNumber: text("certificate_number").notNull().default(""),
     rangeMin: doublePrecision("range_min"),
     rangeMax: doublePrecision("range_max"),
     /** Maker's accuracy as ± % of reading plus ± a floor in the kind's unit (a specification limit, not a standard uncertainty). */
     accuracyPct: doublePrecision("accuracy_pct"),
     accuracyFloor: doublePrecision("accuracy_floor"),
+    /** Thermo-hygrometers: relative-humidity accuracy, ± % RH (the temperature accuracy is accuracyFloor, °C). */
+    humidityAccuracyPct: doublePrecision("humidity_accuracy_pct"),
     /** Pitot tubes: the calibration coefficient (1.0 for a standard pitot-static tube) and the head's outside diameter. */
     probeCoefficient: doublePrecision("probe_coefficient"),
     probeHeadDiameterMm: doublePrecision("probe_head_diameter_mm"),
     /** Capture hoods: the maker's correction factor for the hood top in use, when one applies. */
     hoodCorrectionFactor: doublePrecision("hood_correction_factor"),
     notes: text("notes").notNull().default(""),
+    /** An instrument that was used is retired, never deleted, so old readings keep naming it. */
     retiredAt: timestamp("retired_at", { withTimezone: true }),
     createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [uniqueIndex("instruments_kind_serial_idx").on(t.kind, sql`lower(${t.serial})`)],
+  (t) => [
+    uniqueIndex("instruments_kind_serial_idx").on(t.kind, sql`lower(${t.serial})`),
+    check("instruments_range_order", sql`${t.rangeMin} is null or ${t.rangeMax} is null or ${t.rangeMin} < ${t.rangeMax}`),
+    check("instruments_due_after_calibration", sql`${t.calibratedOn} is null or ${t.calibrationDueOn} is null or ${t.calibrationDueOn} > ${t.calibratedOn}`),
+  ],
 );
 
 /**

@@ -1,6 +1,7 @@
 import { AppHeader } from "@/components/layout/app-header";
 import { Providers } from "@/components/providers";
 import { requireUser } from "@/lib/auth/guards";
+import { OfflineProvider } from "@/lib/offline/offline-context";
 
 export const dynamic = "force-dynamic";
 
@@ -8,8 +9,10 @@ export default async function SignedInLayout({ children }: { children: React.Rea
   const user = await requireUser();
   return (
     <Providers>
-      <AppHeader user={user} />
-      {children}
+      <OfflineProvider owner={user.id}>
+        <AppHeader user={user} />
+        {children}
+      </OfflineProvider>
     </Providers>
   );
 }

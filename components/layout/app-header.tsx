@@ -1,5 +1,6 @@
 import Link from "next/link";
 import type { SessionUser } from "@/db/queries/users";
+import { PendingChanges } from "@/components/offline/sync-status";
 import { SignOutButton } from "./sign-out-button";
 import { UnitSwitch } from "./unit-switch";
 import { Wordmark } from "./wordmark";
@@ -15,7 +16,11 @@ export function AppHeader({ user }: { user: SessionUser }) {
           <Link href="/projects" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
             Projects
           </Link>
+          <Link href="/instruments" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
+            Instruments
+          </Link>
         </nav>
+        <PendingChanges />
         <div className="flex flex-wrap items-center gap-3">
           <UnitSwitch current={user.unitSystem} />
           <span className="text-sm text-paper-sunk">

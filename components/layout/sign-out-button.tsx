@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { buttonClasses } from "@/components/ui/button";
+import { forgetOfflinePages } from "@/lib/offline/service-worker";
 
 /** Ends the session (or, `everywhere`, every session of the user on every device), then shows the signed-out page. */
 export function SignOutButton({ variant = "header", everywhere = false }: { variant?: "header" | "primary" | "secondary"; everywhere?: boolean }) {
@@ -24,6 +25,7 @@ export function SignOutButton({ variant = "header", everywhere = false }: { vari
             setBusy(false);
             return;
           }
+          await forgetOfflinePages().catch(() => undefined);
           router.replace("/sign-out");
           router.refresh();
         }}

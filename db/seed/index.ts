@@ -3,6 +3,7 @@ import { hashPassword } from "@/lib/auth/password";
 import type { Database } from "../client";
 import * as s from "../schema";
 import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./clinic";
+import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
 
 /**
@@ -70,6 +71,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
 
     await seedLibrary(tx, library!.id, userId("tech@example.test"), userId("cx@example.test"));
     await seedClinic(tx, clinic!.id);
+    await seedFieldKit(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
 
     await tx.insert(s.auditLog).values({
       userId: userId("admin@example.test"),

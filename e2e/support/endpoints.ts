@@ -33,6 +33,7 @@ export interface Endpoint {
 
 /** An id that no row has: callers the policy allows get 404 for the row, others 403 or the project's 404. */
 const UNKNOWN_ID = "00000000-0000-4000-8000-00000000abcd";
+const REGISTER_KEEPERS: Endpoint["only"] = { admins: true, rolesAnywhere: ["technician"] };
 const LAYOUT = { duct: { shape: "round", diameter_mm: 600 }, method: "equal-area" };
 
 export const ENDPOINTS: Endpoint[] = [
@@ -83,6 +84,16 @@ export const ENDPOINTS: Endpoint[] = [
   ),
   { method: "GET", route: "/api/v1/projects/[projectId]/design/export.csv", path: "/api/v1/projects/{projectId}/design/export.csv", rule: { action: "design.view" }, ok: 200 },
   { method: "POST", route: "/api/v1/projects/[projectId]/design/import", path: "/api/v1/projects/{projectId}/design/import?mode=preview", rule: { action: "design.edit" }, ok: 415 },
+  // The instrument register belongs to the whole deployment: every signed-in user reads it; technicians
+  // (on any project) and site administrators keep it.
+  { method: "GET", route: "/api/v1/instruments", path: "/api/v1/instruments", rule: { outsideProject: "signed-in" }, ok: 200 },
+  { method: "POST", route: "/api/v1/instruments", path: "/api/v1/instruments", rule: { outsideProject: "signed-in" }, only: REGISTER_KEEPERS, body: {}, ok: 400 },
+  { method: "GET", route: "/api/v1/instruments/[instrumentId]", path: `/api/v1/instruments/${UNKNOWN_ID}`, rule: { outsideProject: "signed-in" }, ok: 404 },
+  ...(["PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/v1/instruments/[instrumentId]", path: `/api/v1/instruments/${UNKNOWN_ID}`, rule: { outsideProject: "signed-in" }, only: REGISTER_KEEPERS, body: method === "PATCH" ? { notes: "x" } : undefined, ok: 404 }),
+  ),
+  { method: "GET", route: "/api/v1/projects/[projectId]/systems/[systemId]/conditions", path: `/api/v1/projects/{projectId}/systems/${UNKNOWN_ID}/conditions`, rule: { action: "project.view" }, ok: 404 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/systems/[systemId]/conditions", path: `/api/v1/projects/{projectId}/systems/${UNKNOWN_ID}/conditions`, rule: { action: "conditions.record" }, body: {}, ok: 404 },
   ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
     (method): Endpoint => ({ method, route: "/api/[...path]", path: "/api/v1/no-such-endpoint", rule: { outsideProject: "public" }, body: method === "GET" ? undefined : {}, ok: 404 }),
   ),

@@ -9,6 +9,7 @@ export const ACTIONS = [
   "project.edit",
   "traverse.record",
   "terminal.record",
+  "conditions.record",
   "traverse.submit",
   "traverse.review",
   "design.view",
@@ -27,6 +28,8 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "project.edit": ["engineer"],
   "traverse.record": ["technician"],
   "terminal.record": ["technician"],
+  /** The operating conditions readings are taken under: recorded by those who take the readings. */
+  "conditions.record": ["technician"],
   "traverse.submit": ["technician"],
   "traverse.review": ["commissioning_agent"],
   // Owners read design against measured: it is what their closeout report shows them.
@@ -48,6 +51,14 @@ export interface Actor {
 export function can(actor: Actor, role: MemberRole | null, action: Action): boolean {
   if (role !== null && POLICY[action].includes(role)) return true;
   return actor.isAdmin && ADMIN_ACTIONS.has(action);
+}
+
+/**
+ * The instrument register is deployment-wide, not a project's: it is kept by the people who carry the
+ * instruments (a technician on at least one project) and by site administrators. Every signed-in user may read it.
+ */
+export function canKeepInstrumentRegister(actor: Actor, roles: readonly (MemberRole | null)[]): boolean {
+  return actor.isAdmin || roles.includes("technician");
 }
 
 export const ROLE_LABELS: Record<MemberRole, string> = {
@@ -73,6 +84,12 @@ export const ROUTES_OUTSIDE_PROJECTS: Record<string, "public" | "signed-in"> = {
   "GET /api/v1/projects": "signed-in",
   // Site administrators and engineers of a project start projects; the handler checks which before reading the body.
   "POST /api/v1/projects": "signed-in",
+  // The organisation's instrument register: read by everyone signed in; kept by technicians and site administrators (checked in the handler).
+  "GET /api/v1/instruments": "signed-in",
+  "POST /api/v1/instruments": "signed-in",
+  "GET /api/v1/instruments/[instrumentId]": "signed-in",
+  "PATCH /api/v1/instruments/[instrumentId]": "signed-in",
+  "DELETE /api/v1/instruments/[instrumentId]": "signed-in",
   // The API description holds no data.
   "GET /api/v1/openapi.json": "public",
   "PATCH /api/v1/me": "signed-in",

@@ -1,9 +1,10 @@
 import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
 import { designOperations } from "./operations/design";
+import { fieldOperations } from "./operations/field";
 
 /** Every documented operation; each area adds its own list here. */
-export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations];
+export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations, ...fieldOperations];
 
 export function openApiDocument() {
   return buildOpenApiDocument(OPERATIONS, { version: "1" });

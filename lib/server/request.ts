@@ -3,6 +3,8 @@ import "server-only";
 /** Body size caps (bytes): sign-in and password forms are tiny; JSON documents (a traverse grid, a design schedule) fit well under 1 MiB. */
 export const BODY_LIMITS = {
   auth: 16 * 1024,
+  /** One resource's fields (an instrument, a conditions record): small forms. */
+  form: 32 * 1024,
   json: 1024 * 1024,
 } as const;
 

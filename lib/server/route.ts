@@ -165,14 +165,9 @@ export function defineRoute<B>(
 
       let body = undefined as B;
       if (options.body) {
-        const raw = await readJsonBody(req, options.maxBodyBytes ?? BODY_LIMITS.json);
-        if (!raw.ok) return jsonError(raw.status, raw.message, raw.status === 400 ? { "(body)": raw.message } : undefined);
-        const parsed = options.body.safeParse(raw.value);
-        if (!parsed.success) {
-          const failure = failFromZod(parsed.error);
-          return jsonError(400, failure.error.message, failure.error.fields);
-        }
-        body = parsed.data;
+        const read = await parseJsonBody(req, options.body, options.maxBodyBytes);
+        if (!read.ok) return read.response;
+        body = read.value;
       }
 
       const response =
@@ -195,6 +190,22 @@ export function routeDeclaration(handler: unknown): RouteDeclaration | null {
   if (typeof handler !== "function") return null;
   const d = (handler as Partial<RouteHandler>).declaration;
   return d && typeof d === "object" && "scope" in d ? d : null;
+}
+
+/**
+ * Reads and validates a JSON body: content type (415), size cap (413), JSON (400 naming `(body)`),
+ * schema (400 naming each field). defineRoute does this for a declared `body`; a handler that must
+ * check something of its own before reading the body (who may call it) calls this afterwards.
+ */
+export async function parseJsonBody<T>(req: Request, schema: ZodType<T>, maxBytes: number = BODY_LIMITS.json): Promise<{ ok: true; value: T } | { ok: false; response: Response }> {
+  const raw = await readJsonBody(req, maxBytes);
+  if (!raw.ok) return { ok: false, response: jsonError(raw.status, raw.message, raw.status === 400 ? { "(body)": raw.message } : undefined) };
+  const parsed = schema.safeParse(raw.value);
+  if (!parsed.success) {
+    const failure = failFromZod(parsed.error);
+    return { ok: false, response: jsonError(400, failure.error.message, failure.error.fields) };
+  }
+  return { ok: true, value: parsed.data };
 }
 
 /**

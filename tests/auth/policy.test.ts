@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ACTIONS, can, POLICY } from "@/lib/auth/policy";
+import { ACTIONS, can, canKeepInstrumentRegister, POLICY } from "@/lib/auth/policy";
 import { projectNav } from "@/lib/navigation";
 
 const member = { isAdmin: false };
@@ -25,6 +25,16 @@ describe("role policy", () => {
     expect(can(member, "engineer", "project.edit")).toBe(true);
     expect(can(member, "engineer", "design.edit")).toBe(true);
     expect(can(member, "technician", "design.edit")).toBe(false);
+    expect(can(member, "technician", "conditions.record")).toBe(true);
+    for (const role of ["commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "conditions.record")).toBe(false);
+    expect(can(admin, null, "conditions.record")).toBe(false);
+  });
+
+  it("lets technicians on any project and site administrators keep the instrument register", () => {
+    expect(canKeepInstrumentRegister(member, ["owner", "technician"])).toBe(true);
+    expect(canKeepInstrumentRegister(member, ["engineer", "commissioning_agent", "owner"])).toBe(false);
+    expect(canKeepInstrumentRegister(member, [])).toBe(false);
+    expect(canKeepInstrumentRegister(admin, [])).toBe(true);
   });
 
   it("lets every member read design against measured, owners included (their closeout report shows it), and only engineers change it", () => {

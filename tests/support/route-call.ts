@@ -2,25 +2,45 @@ import { NextRequest } from "next/server";
 
 type Handler = (req: NextRequest, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
 
+export interface CallOptions {
+  method?: string;
+  path?: string;
+  params?: Record<string, string>;
+  /** A JSON body (sent as application/json). */
+  json?: unknown;
+  /** The same as `json`. */
+  body?: unknown;
+  /** A body sent as it is, as `contentType` (default text/csv). */
+  text?: string;
+  contentType?: string;
+  /** A body sent as it is, as application/json unless `headers` say otherwise (for malformed JSON). */
+  rawBody?: string;
+  headers?: Record<string, string>;
+}
+
 /**
  * Calls a route handler the way Next does: a request and its path parameters. The session is
- * mocked by the test file (vi.mock of @/lib/auth/session), so the handler sees that user.
+ * mocked by the test file (tests/support/session-mock.ts), so the handler sees that user.
  */
 export async function callRoute(
   handler: Handler,
-  { method = "GET", path = "/api/test", params = {}, json, text, contentType }: { method?: string; path?: string; params?: Record<string, string>; json?: unknown; text?: string; contentType?: string },
+  { method = "GET", path = "/api/test", params = {}, json, body, text, contentType, rawBody, headers: extra = {} }: CallOptions = {},
   // eslint-disable-next-line @typescript-eslint/no-explicit-any -- tests read whatever JSON the route answers
 ): Promise<{ status: number; body: any; text: string; headers: Headers }> {
   const headers: Record<string, string> = {};
-  let body: string | undefined;
-  if (json !== undefined) {
-    body = JSON.stringify(json);
+  let payload: string | undefined;
+  const value = json ?? body;
+  if (value !== undefined) {
+    payload = JSON.stringify(value);
     headers["content-type"] = "application/json";
   } else if (text !== undefined) {
-    body = text;
+    payload = text;
     headers["content-type"] = contentType ?? "text/csv";
+  } else if (rawBody !== undefined) {
+    payload = rawBody;
+    headers["content-type"] = "application/json";
   }
-  const req = new NextRequest(new URL(path, "http://localhost"), { method, body, headers });
+  const req = new NextRequest(new URL(path, "http://localhost"), { method, body: payload, headers: { ...headers, ...extra } });
   const res = await handler(req, { params: Promise.resolve(params) });
   const raw = await res.text();
   let parsed: unknown = null;
