@@ -233,3 +233,19 @@ export function gridOfRows(lines: number, pointsPerLine: number, rows: readonly 
   unreadable.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
   return { readings, unreadable };
 }
+
+/** The calc `layout` command's input for the traverse (the points, their depths and the probe's reach). */
+export function layoutCalcInput(source: TraverseEngineSource): Record<string, unknown> {
+  const full = traverseCalcInput(source, []);
+  const { duct, method, lines, points_per_line, straight_upstream_mm, straight_downstream_mm, port_offset_mm, probe } = full as Record<string, unknown> & { probe: { head_diameter_mm?: number } };
+  return {
+    duct,
+    method,
+    lines,
+    points_per_line,
+    ...(straight_upstream_mm !== undefined ? { straight_upstream_mm } : {}),
+    ...(straight_downstream_mm !== undefined ? { straight_downstream_mm } : {}),
+    port_offset_mm,
+    ...(probe.head_diameter_mm !== undefined ? { probe: { head_diameter_mm: probe.head_diameter_mm } } : {}),
+  };
+}
