@@ -22,8 +22,9 @@ export function CrossSection({ duct, layout, title, values, highlight }: { duct:
   const id = useId();
   const d = crossSectionDrawing(duct, layout);
   const max = values ? Math.max(0, ...values.velocities.flat().filter((v): v is number => v !== null), ...values.filled.values()) : 0;
-  const r = d.pointRadius * (values ? 1.55 : 1);
-  const fontSize = Math.max(8, Math.min(13, r * (values ? 0.62 : 1.05)));
+  // On the map each marker carries a printed value: as large as the closest neighbours allow.
+  const r = values ? Math.max(7, Math.min(22, d.minSpacing * 0.47)) : d.pointRadius;
+  const fontSize = values ? Math.max(7, Math.min(13, r * 0.68)) : Math.max(8, Math.min(13, r * 1.05));
   const lineWord = duct.shape === "round" ? "diameter" : "line";
   return (
     <svg viewBox={d.viewBox} role="img" aria-labelledby={`${id}-t ${id}-d`} className="h-auto w-full max-w-xl" style={{ aspectRatio: `${d.width} / ${d.height}` }}>

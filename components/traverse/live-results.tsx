@@ -96,7 +96,7 @@ export function LiveResults({
       )}
       {result.integrationRule === "tributary-area" && result.filledPoints === 0 && (
         <p className="text-sm">
-          <strong>Gaps:</strong> the mean uses the area around each point read (tributary areas) instead of the method's equal weights.
+          <strong>Gaps:</strong> the mean uses the area around each point read (tributary areas) instead of the method&apos;s equal weights.
         </p>
       )}
       {result.warnings.length > 0 && (

@@ -113,7 +113,7 @@ export function MeterImport({
           )}
           <div className="overflow-x-auto">
             <table className="border-collapse text-right">
-              <caption className="sr-only">The file's values on the grid</caption>
+              <caption className="sr-only">The file&apos;s values on the grid</caption>
               <thead>
                 <tr>
                   <th scope="col" className="px-2 text-left text-sm">

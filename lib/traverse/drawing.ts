@@ -51,6 +51,18 @@ export interface Drawing {
   scale: number;
   /** A radius for point markers that keeps neighbours apart. */
   pointRadius: number;
+  /** The smallest distance between two points, SVG units (sizes the map's value markers). */
+  minSpacing: number;
+}
+
+function minSpacing(points: readonly DrawingPoint[]): number {
+  let min = Infinity;
+  for (let a = 0; a < points.length; a++)
+    for (let b = a + 1; b < points.length; b++) {
+      const d = Math.hypot(points[a]!.x - points[b]!.x, points[a]!.y - points[b]!.y);
+      if (d > 1e-9 && d < min) min = d;
+    }
+  return Number.isFinite(min) ? min : DRAWING_SIZE;
 }
 
 /** The drawing's longer side, in SVG units. */
@@ -82,7 +94,7 @@ export function crossSectionDrawing(duct: DuctForDrawing, layout: LayoutForDrawi
     const n = Math.max(1, layout.pointsPerLine);
     const pointRadius = Math.max(5, Math.min(13, (DRAWING_SIZE / n) * 0.3));
     const half = r + MARGIN;
-    return { viewBox: `${-half} ${-half} ${2 * half} ${2 * half}`, width: 2 * half, height: 2 * half, outline: { kind: "circle", cx: 0, cy: 0, r }, lines, points, scale, pointRadius };
+    return { viewBox: `${-half} ${-half} ${2 * half} ${2 * half}`, width: 2 * half, height: 2 * half, outline: { kind: "circle", cx: 0, cy: 0, r }, lines, points, scale, pointRadius, minSpacing: minSpacing(points) };
   }
   const scale = DRAWING_SIZE / Math.max(duct.widthMm, duct.heightMm);
   const w = duct.widthMm * scale;
@@ -94,5 +106,5 @@ export function crossSectionDrawing(duct: DuctForDrawing, layout: LayoutForDrawi
   });
   const spacing = Math.min(w / Math.max(1, layout.lineCount), h / Math.max(1, layout.pointsPerLine));
   const pointRadius = Math.max(5, Math.min(13, spacing * 0.3));
-  return { viewBox: `${-MARGIN} ${-MARGIN} ${w + 2 * MARGIN} ${h + 2 * MARGIN}`, width: w + 2 * MARGIN, height: h + 2 * MARGIN, outline: { kind: "rect", x: 0, y: 0, w, h }, lines, points, scale, pointRadius };
+  return { viewBox: `${-MARGIN} ${-MARGIN} ${w + 2 * MARGIN} ${h + 2 * MARGIN}`, width: w + 2 * MARGIN, height: h + 2 * MARGIN, outline: { kind: "rect", x: 0, y: 0, w, h }, lines, points, scale, pointRadius, minSpacing: minSpacing(points) };
 }
