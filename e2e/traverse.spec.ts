@@ -95,11 +95,11 @@ for (const viewport of VIEWPORTS) {
       await expect(page.getByText(/mm round: 8 points per diameter/)).toBeVisible();
       await expectNoSeriousViolations(page);
 
-      await page.getByLabel(/^Dry-bulb/).focus();
+      await page.getByRole("textbox", { name: /^Dry-bulb/ }).focus();
       await page.keyboard.type("18.5");
-      await page.getByLabel(/^Relative humidity/).focus();
+      await page.getByRole("textbox", { name: /^Relative humidity/ }).focus();
       await page.keyboard.type("46");
-      await page.getByLabel(/^Duct static pressure/).focus();
+      await page.getByRole("textbox", { name: /^Duct static pressure/ }).focus();
       await page.keyboard.type("-140");
       await page.getByRole("button", { name: /^Start traverse/ }).focus();
       await page.keyboard.press("Enter");
