@@ -19,7 +19,9 @@ import { camelKeys, engineSourceOf, reduceTraverseSource, type Grid, type PointR
 import { plausibilityFlags } from "@/lib/traverse/plausibility";
 import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/result-types";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
+import { buttonClasses } from "@/components/ui/button";
 import { AirEditor } from "./air-editor";
+import { KitEditor } from "./kit-editor";
 import { CrossSection } from "./cross-section";
 import { InsertionDepths } from "./insertion-depths";
 import { LiveResults } from "./live-results";
@@ -56,6 +58,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const server = draft.server ?? initial;
   const value = draft.value;
   const [focused, setFocused] = useState<string | null>(null);
+  const [changingKit, setChangingKit] = useState(false);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
 
@@ -250,6 +253,26 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         <section aria-labelledby={`${resultsId}-air`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
           <h2 id={`${resultsId}-air`}>Air at the plane</h2>
           <AirEditor air={value.air} units={units} altitudeM={server.project.altitudeM} onChange={(a) => draft.setValue((prev) => ({ ...prev, air: a }))} />
+        </section>
+      )}
+      {editable && (
+        <section aria-labelledby={`${resultsId}-kit`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-kit`}>Instruments and operating conditions</h2>
+          {changingKit ? (
+            <KitEditor
+              projectId={projectId}
+              traverse={server}
+              value={value}
+              units={units}
+              onChange={(patch) => draft.setValue((prev) => ({ ...prev, ...patch, instrument: { ...prev.instrument, ...patch.instrument } }))}
+            />
+          ) : (
+            <div>
+              <button type="button" className={buttonClasses("secondary")} onClick={() => setChangingKit(true)}>
+                Change instruments or conditions
+              </button>
+            </div>
+          )}
         </section>
       )}
     </div>

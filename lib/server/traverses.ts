@@ -276,6 +276,7 @@ export async function traverseResource(found: TraverseInProject, project: Projec
       straightDownstreamMm: section.straightDownstreamMm,
       location: section.location,
     },
+    system: { id: system.id, tag: system.tag, name: system.name, kind: system.kind, fanSpeedRpm: system.fanSpeedRpm, hasVfd: system.hasVfd },
     project: { altitudeM: project.altitudeM, standardDensityKgM3: project.standardDensityKgM3 },
     readings,
     unreadable,
