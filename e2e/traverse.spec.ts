@@ -194,6 +194,46 @@ test.describe("on a landscape tablet", () => {
   });
 });
 
+test.describe("on a portrait tablet", () => {
+  test.use({ viewport: { width: 820, height: 1180 }, hasTouch: true });
+
+  test("a save made elsewhere first shows both grids side by side, and nothing is overwritten until the technician chooses", async ({ page, context, playwright, baseURL }) => {
+    const projectId = await openFieldWork(page);
+    const api = await apiAs(playwright, baseURL, "tech@example.test");
+    const design = (await (await api.get(`/api/v1/projects/${projectId}`)).json()) as { sections: { id: string; tag: string }[] };
+    const x11 = design.sections.find((s) => s.tag === "X1.1")!;
+    const t = (await (await api.post(`/api/v1/projects/${projectId}/traverses`, { data: { sectionId: x11.id, method: "log-linear", air: { dryBulbC: 17, relativeHumidityPct: 50, staticPa: -120 } } })).json()).traverse;
+    await page.goto(`/projects/${projectId}/traverses/${t.id}`);
+    await expect(page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ })).toBeVisible();
+
+    await goOffline(context);
+    await page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ }).focus();
+    await typeLine(page, ["11.1", "22.2"]);
+    await expect(page.getByRole("status").filter({ hasText: "Saved on this device" }).first()).toBeVisible();
+    // Meanwhile another device saves a different grid first.
+    const theirs = numbers.map((row) => row.map((v) => v + 1));
+    expect((await api.put(`/api/v1/projects/${projectId}/traverses/${t.id}/readings`, { data: { version: 1, readings: theirs } })).status()).toBe(200);
+    await goOnline(context);
+
+    const choice = page.getByRole("region", { name: /Two versions of the readings of X1\.1/ });
+    await expect(choice).toBeVisible({ timeout: 30_000 });
+    await expect(choice).toContainText("On this device (yours)");
+    await expect(choice).toContainText("On the server (version 2)");
+    await expect(choice).toContainText("11.1");
+    await expect(choice).toContainText(String(theirs[0]![0]));
+    await expectNoSeriousViolations(page);
+    // Nothing was overwritten while the choice waits.
+    expect((await (await api.get(`/api/v1/projects/${projectId}/traverses/${t.id}`)).json()).traverse.readings).toEqual(theirs);
+
+    await choice.getByRole("button", { name: "Keep mine" }).click();
+    await expect(page.getByRole("status").filter({ hasText: "The server has the readings." })).toBeVisible({ timeout: 15_000 });
+    const saved = (await (await api.get(`/api/v1/projects/${projectId}/traverses/${t.id}`)).json()).traverse;
+    expect(saved.version).toBe(3);
+    expect(saved.readings[0].slice(0, 3)).toEqual([11.1, 22.2, null]);
+    await api.dispose();
+  });
+});
+
 test("an owner sees a traverse without any recording control, and the API refuses the owner's save (403)", async ({ page, playwright, baseURL }) => {
   const signIn = new SignInPage(page);
   await signIn.goto();
