@@ -9,7 +9,7 @@
  * calculation through the same input mapping).
  */
 import dynamic from "next/dynamic";
-import { useCallback, useId, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react";
 import { ConflictChoice } from "@/components/offline/conflict-choice";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
@@ -21,6 +21,7 @@ import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/resul
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
 import { AirEditor } from "./air-editor";
+import { ChartBoundary } from "./chart-boundary";
 import { KitEditor } from "./kit-editor";
 import { CrossSection } from "./cross-section";
 import { InsertionDepths } from "./insertion-depths";
@@ -28,7 +29,8 @@ import { LiveResults } from "./live-results";
 import { MeterImport } from "./meter-import";
 import { ReadingGrid, readingText } from "./reading-grid";
 
-const ProfileChart = dynamic(() => import("./profile-chart"), {
+const loadChart = () => import("./profile-chart");
+const ProfileChart = dynamic(loadChart, {
   ssr: false,
   loading: () => <p className="text-ink-soft">Loading the profile chart…</p>,
 });
@@ -59,6 +61,12 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const value = draft.value;
   const [focused, setFocused] = useState<string | null>(null);
   const [changingKit, setChangingKit] = useState(false);
+  // Not in the first load, but fetched once the page is up, so the chart is on the device (and kept by
+  // the service worker) before the network goes.
+  useEffect(() => {
+    const idle = window.setTimeout(() => void loadChart().catch(() => undefined), 500);
+    return () => window.clearTimeout(idle);
+  }, []);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
 
@@ -244,7 +252,9 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           </section>
           <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
             <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
-            <ProfileChart points={result.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
+            <ChartBoundary>
+              <ProfileChart points={result.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
+            </ChartBoundary>
           </section>
         </div>
       )}
