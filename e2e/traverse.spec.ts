@@ -84,7 +84,7 @@ for (const viewport of VIEWPORTS) {
     test.use({ viewport: { width: viewport.width, height: viewport.height }, hasTouch: viewport.width < 1200 });
 
     test(`a technician traverses ${viewport.section} with the keyboard only, loses the network midway, and every reading reaches the server`, async ({ page, context, playwright, baseURL }) => {
-      test.setTimeout(120_000);
+      test.setTimeout(180_000);
       const projectId = await openFieldWork(page);
       const start = page.getByRole("link", { name: `Start traverse of ${viewport.section}`, exact: true });
       await start.focus();

@@ -51,34 +51,38 @@ async function readingsMix({ cookies, projects, base, writers }: LoadContext): P
     if (res.status !== 201) throw new Error(`starting a load traverse answered ${res.status}`);
     traverses.push(((await res.json()) as { traverse: { id: string } }).traverse.id);
   }
-  let next = 0;
-  type Conn = { traverseId?: string; version?: number; saves?: number };
+  // autocannon clears a connection's context each time it loops over the request list, so the
+  // versions live here: each save takes a traverse no other connection is saving, at its last version.
+  const version = new Map(traverses.map((id) => [id, 1]));
+  const saves = new Map(traverses.map((id) => [id, 0]));
+  const busy = new Set<string>();
+  type Conn = { traverseId?: string };
   return [
     {
       method: "PUT",
       path: "/",
       headers: json(cookie),
       setupRequest: (req, context) => {
-        const c = context as Conn;
-        if (!c.traverseId) {
-          c.traverseId = traverses[next++ % traverses.length];
-          c.version = 1;
-          c.saves = 0;
-        }
-        c.saves = (c.saves ?? 0) + 1;
+        const id = traverses.find((t) => !busy.has(t)) ?? traverses[0]!;
+        busy.add(id);
+        (context as Conn).traverseId = id;
+        const n = (saves.get(id) ?? 0) + 1;
+        saves.set(id, n);
         // A point changes per save, as when a technician types along the line.
-        const readings = [0, 1].map((k) => Array.from({ length: 8 }, (_, i) => 20 + 8 * Math.sin(((i + 0.5) / 8) * Math.PI) + ((c.saves! + i + k) % 5) * 0.1));
-        return { ...req, path: `/api/v1/projects/${projectId}/traverses/${c.traverseId}/readings`, body: JSON.stringify({ version: c.version, readings }) };
+        const readings = [0, 1].map((k) => Array.from({ length: 8 }, (_, i) => 20 + 8 * Math.sin(((i + 0.5) / 8) * Math.PI) + ((n + i + k) % 5) * 0.1));
+        return { ...req, path: `/api/v1/projects/${projectId}/traverses/${id}/readings`, body: JSON.stringify({ version: version.get(id), readings }) };
       },
-      onResponse: (status, body, context) => {
-        const c = context as Conn;
+      onResponse: (_status, body, context) => {
+        const id = (context as Conn).traverseId;
+        if (!id) return;
+        busy.delete(id);
         try {
+          // 200 and 409 both carry the traverse at its current version.
           const v = (JSON.parse(body) as { traverse?: { version?: number } }).traverse?.version;
-          if (typeof v === "number") c.version = v;
+          if (typeof v === "number") version.set(id, v);
         } catch {
-          // A failed answer is counted by autocannon; the next save uses the version it last knew.
+          // A failed answer is counted by autocannon; the next save uses the version last known.
         }
-        void status;
       },
     },
   ];
