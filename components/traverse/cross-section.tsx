@@ -22,9 +22,10 @@ export function CrossSection({ duct, layout, title, values, highlight }: { duct:
   const id = useId();
   const d = crossSectionDrawing(duct, layout);
   const max = values ? Math.max(0, ...values.velocities.flat().filter((v): v is number => v !== null), ...values.filled.values()) : 0;
-  // On the map each marker carries a printed value: as large as the closest neighbours allow.
-  const r = values ? Math.max(7, Math.min(22, d.minSpacing * 0.47)) : d.pointRadius;
-  const fontSize = values ? Math.max(7, Math.min(13, r * 0.68)) : Math.max(8, Math.min(13, r * 1.05));
+  // Map markers stay small enough that the closest neighbours do not touch; their values are printed beside them.
+  const r = values ? Math.max(5, Math.min(11, d.minSpacing * 0.42)) : d.pointRadius;
+  const fontSize = Math.max(8, Math.min(13, r * 1.05));
+  const labelSize = 15;
   const lineWord = duct.shape === "round" ? "diameter" : "line";
   return (
     <svg viewBox={d.viewBox} role="img" aria-labelledby={`${id}-t ${id}-d`} className="h-auto w-full max-w-xl" style={{ aspectRatio: `${d.width} / ${d.height}` }}>
@@ -59,29 +60,62 @@ export function CrossSection({ duct, layout, title, values, highlight }: { duct:
         const blocked = values?.unreadable.has(key) ?? false;
         const filled = values?.filled.get(key);
         const shade = v !== null && max > 0 ? 0.12 + 0.78 * Math.max(0, v) / max : 0;
-        const text = !values ? String(p.point + 1) : blocked ? "×" : v !== null ? values.format(v) : filled !== undefined ? values.format(filled) : "–";
-        const dark = shade > 0.55;
-        return (
-          <g key={key} data-point={key}>
+        const stroke = highlight === key ? "stroke-fault" : p.beyondReach ? "stroke-caution" : "stroke-ink";
+        const marker = (
+          <>
             <circle
               cx={p.x}
               cy={p.y}
               r={r}
-              className={`${blocked ? "" : v !== null ? "fill-accent" : "fill-paper-raised"} ${highlight === key ? "stroke-fault" : p.beyondReach ? "stroke-caution" : "stroke-ink"}`}
+              className={`${blocked ? "" : v !== null ? "fill-accent" : "fill-paper-raised"} ${stroke}`}
               fill={blocked ? `url(#${id}-hatch)` : undefined}
               fillOpacity={v !== null && !blocked ? shade : 1}
               strokeWidth={highlight === key ? 4 : p.beyondReach ? 3 : 1.5}
               strokeDasharray={values && v === null && !blocked ? "3 3" : undefined}
             />
             {p.beyondReach && <rect x={p.x - r - 3} y={p.y - r - 3} width={2 * r + 6} height={2 * r + 6} fill="none" className="stroke-caution" strokeWidth="2" />}
+          </>
+        );
+        if (!values)
+          return (
+            <g key={key} data-point={key}>
+              {marker}
+              <text x={p.x} y={p.y} textAnchor="middle" dominantBaseline="central" fontSize={fontSize} className="fill-ink font-semibold">
+                {p.point + 1}
+              </text>
+            </g>
+          );
+        // On the map the value is printed beside its marker, across the line from it (alternating sides on a
+        // diameter, where points crowd at the walls), large enough to read at arm's length.
+        const line = d.lines[p.line]!;
+        const len = Math.hypot(line.x2 - line.x1, line.y2 - line.y1) || 1;
+        const side = duct.shape === "round" && p.point % 2 === 1 ? -1 : 1;
+        const nx = (-(line.y2 - line.y1) / len) * side;
+        const ny = ((line.x2 - line.x1) / len) * side;
+        const gap = r + 5;
+        const tx = p.x + nx * gap;
+        const ty = p.y + ny * gap;
+        const anchor = Math.abs(nx) > 0.4 ? (nx > 0 ? "start" : "end") : "middle";
+        const text = blocked ? "unreadable" : v !== null ? values.format(v) : filled !== undefined ? values.format(filled) : "–";
+        return (
+          <g key={key} data-point={key}>
+            {marker}
+            {blocked && (
+              <text x={p.x} y={p.y} textAnchor="middle" dominantBaseline="central" fontSize={r * 1.4} className="fill-ink font-semibold">
+                ×
+              </text>
+            )}
             <text
-              x={p.x}
-              y={p.y}
-              textAnchor="middle"
-              dominantBaseline="central"
-              fontSize={fontSize}
+              x={tx}
+              y={ty}
+              textAnchor={anchor}
+              dominantBaseline={Math.abs(ny) > 0.4 && anchor === "middle" ? (ny > 0 ? "hanging" : "auto") : "central"}
+              fontSize={labelSize}
               fontStyle={filled !== undefined && v === null && !blocked ? "italic" : undefined}
-              className={`${dark ? "fill-white" : "fill-ink"} font-semibold`}
+              className="fill-ink font-semibold"
+              stroke="#ffffff"
+              strokeWidth="4"
+              paintOrder="stroke"
             >
               {text}
             </text>
