@@ -111,6 +111,12 @@ async function instrumentColumns(choice: InstrumentChoice, readingsKind: Travers
     barometerInstrumentId: choice.barometerInstrumentId !== undefined ? choice.barometerInstrumentId : (current?.barometerInstrumentId ?? null),
   };
   if (readingsKind !== "velocity_pressure") chosen.probeInstrumentId = choice.probeInstrumentId ?? null;
+  const extra = {
+    ...(choice.overdueReason !== undefined ? { overdueReason: choice.overdueReason } : {}),
+    ...(choice.standardDensityKgM3 !== undefined ? { instrumentStandardDensityKgM3: choice.standardDensityKgM3 } : {}),
+  };
+  // The same instruments as stored: what was copied from the register when they were chosen stays.
+  if (current && SLOTS.every((slot) => chosen[slot] === current[COLUMN[slot]])) return { values: extra };
   const found = await instrumentsById(Object.values(chosen));
   const fields: Record<string, string> = {};
   const today = new Date();
@@ -142,8 +148,7 @@ async function instrumentColumns(choice: InstrumentChoice, readingsKind: Travers
       probeCoefficient: probe?.probeCoefficient ?? 1,
       probeHeadDiameterMm: probe?.probeHeadDiameterMm ?? null,
       instrumentAccuracy: engineAccuracy([reading, air, barometer]),
-      ...(choice.overdueReason !== undefined ? { overdueReason: choice.overdueReason } : {}),
-      ...(choice.standardDensityKgM3 !== undefined ? { instrumentStandardDensityKgM3: choice.standardDensityKgM3 } : {}),
+      ...extra,
     },
   };
 }

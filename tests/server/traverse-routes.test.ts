@@ -300,6 +300,23 @@ describe("PUT …/traverses/{traverseId}/readings", () => {
     expect(res.body.traverse.resultError.message).toContain("Most readings are negative");
   });
 
+  it("keeps the accuracies copied from the register when the instruments stay the same, and copies anew when one changes", async () => {
+    as("tech@example.test");
+    const db = await getDb();
+    const { body } = await start({ sectionId: sections.X1, method: "log-linear", air, instrument: instrument() });
+    const id = body.traverse.id;
+    await db.update(s.instruments).set({ accuracyPct: 2.5 }).where(eq(s.instruments.serial, "MM-30418"));
+    try {
+      const same = await put(id, { version: 1, readings: X1_GRID, instrument: { ...instrument(), overdueReason: "" } });
+      expect(same.body.traverse.instrument.accuracy.pressureAccuracyPct).toBe(1);
+      const changed = await put(id, { version: 2, readings: X1_GRID, instrument: { ...instrument(), barometerInstrumentId: null } });
+      expect(changed.body.traverse.instrument.accuracy.pressureAccuracyPct).toBe(2.5);
+      expect(changed.body.traverse.instrument.accuracy.barometricAccuracyPa).toBeUndefined();
+    } finally {
+      await db.update(s.instruments).set({ accuracyPct: 1 }).where(eq(s.instruments.serial, "MM-30418"));
+    }
+  });
+
   it("locks a submitted or approved traverse (409 saying to re-traverse), changing nothing", async () => {
     as("tech@example.test");
     const db = await getDb();
