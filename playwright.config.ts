@@ -32,11 +32,13 @@ export default defineConfig({
       args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
     },
   },
-  // Specs that change shared state run after the others, one stage at a time: the matrix saves
-  // preferences as every role; the session spec ends sessions and changes a password.
+  // Specs that change shared state run after the others, one stage at a time: the traverse journey
+  // adds traverses; the matrix saves preferences as every role; the session spec ends sessions and changes a password.
   projects: [
-    { name: "journeys", testIgnore: /(authorization-matrix|sessions)\.spec\.ts/ },
-    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["journeys"] },
+    { name: "journeys", testIgnore: /(authorization-matrix|sessions|traverse)\.spec\.ts/ },
+    // The traverse journey adds traverses to the demo's exhaust sections, which the journeys show untouched.
+    { name: "traverse", testMatch: /traverse\.spec\.ts/, dependencies: ["journeys"] },
+    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["traverse"] },
     { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
   ],
   webServer: {

@@ -17,6 +17,7 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import type { InstrumentAccuracy } from "@/lib/airflow/uncertainty";
 
 // All physical quantities are stored in SI: mm for duct dimensions, m³/s for flows,
 // Pa for pressures, °C for temperatures, kg/m³ for densities. Conversion happens at the edges.
@@ -340,6 +341,16 @@ export const traverses = pgTable(
     instrument: text("instrument").notNull().default(""),
     instrumentSerial: text("instrument_serial").notNull().default(""),
     probeCoefficient: doublePrecision("probe_coefficient").notNull().default(1),
+    /** Outside diameter of the probe head, mm (from the pitot tube in the register): judges which wall points it can reach. Null: the engine's 8 mm. */
+    probeHeadDiameterMm: doublePrecision("probe_head_diameter_mm"),
+    /**
+     * The maker's accuracies of the instruments used, as the engine's uncertainty inputs (engineAccuracy of
+     * lib/instruments/accuracy.ts), copied from the register when the instruments are chosen, so a later
+     * change of the register does not change this traverse's result.
+     */
+    instrumentAccuracy: jsonb("instrument_accuracy").$type<Partial<InstrumentAccuracy>>().notNull().default({}),
+    /** Anemometer traverses read as standard velocity: the density the anemometer refers to (its manual), kg/m³. Null: the project's standard density. */
+    instrumentStandardDensityKgM3: doublePrecision("instrument_standard_density_kg_m3"),
     dryBulbC: doublePrecision("dry_bulb_c"),
     wetBulbC: doublePrecision("wet_bulb_c"),
     relativeHumidityPct: doublePrecision("relative_humidity_pct"),
@@ -350,6 +361,7 @@ export const traverses = pgTable(
     instrumentId: uuid("instrument_id").references(() => instruments.id, { onDelete: "set null" }),
     probeInstrumentId: uuid("probe_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
     airInstrumentId: uuid("air_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    barometerInstrumentId: uuid("barometer_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
     /** Why an instrument past its calibration due date was used; required before submission. */
     overdueReason: text("overdue_reason").notNull().default(""),
     conditionsId: uuid("conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
@@ -366,11 +378,18 @@ export const traverses = pgTable(
   },
   (t) => [
     index("traverses_section_idx").on(t.sectionId),
+    // A re-traverse takes the next revision of its section: two at once cannot both take the same one.
+    uniqueIndex("traverses_section_revision_idx").on(t.sectionId, t.revision),
     check("traverses_counts", sql`${t.lines} >= 1 and ${t.pointsPerLine} >= 2`),
+    check("traverses_version_positive", sql`${t.version} >= 1`),
   ],
 );
 
-/** One point of a traverse: velocity pressure (Pa) or velocity (m/s), per the traverse's readingsKind. */
+/**
+ * One point of a traverse (line and point 1-based): velocity pressure (Pa) or velocity (m/s), per the
+ * traverse's readingsKind; or a point the probe could not reach for an obstruction (`unreadable`, no
+ * value). A point not read yet has no row.
+ */
 export const readings = pgTable(
   "readings",
   {
@@ -380,10 +399,14 @@ export const readings = pgTable(
       .references(() => traverses.id, { onDelete: "cascade" }),
     line: integer("line").notNull(),
     point: integer("point").notNull(),
-    value: doublePrecision("value").notNull(),
+    value: doublePrecision("value"),
+    unreadable: boolean("unreadable").notNull().default(false),
     recordedAt: timestamp("recorded_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [uniqueIndex("readings_position_idx").on(t.traverseId, t.line, t.point)],
+  (t) => [
+    uniqueIndex("readings_position_idx").on(t.traverseId, t.line, t.point),
+    check("readings_value_or_unreadable", sql`(${t.unreadable} and ${t.value} is null) or (not ${t.unreadable} and ${t.value} is not null)`),
+  ],
 );
 
 /**

@@ -79,7 +79,7 @@ export interface ProjectSummary {
 
 /**
  * Duct sections of the project whose newest traverse has this status: the same rule the screens use
- * (lib/server/airflow-view.ts takes each section's newest traverse), so the list and the pages agree.
+ * (lib/server/airflow-view.ts takes each section's latest revision), so the list and the pages agree.
  */
 function sectionsWhoseLatestTraverseIs(status: TraverseStatus) {
   return sql<number>`(select count(*)::int from (
@@ -88,7 +88,7 @@ function sectionsWhoseLatestTraverseIs(status: TraverseStatus) {
     join ${ductSections} on ${ductSections.id} = ${traverses.sectionId}
     join ${airSystems} on ${airSystems.id} = ${ductSections.systemId}
     where ${airSystems.projectId} = ${projects.id}
-    order by ${traverses.sectionId}, ${traverses.createdAt} desc
+    order by ${traverses.sectionId}, ${traverses.revision} desc, ${traverses.createdAt} desc
   ) latest where latest.status = ${status})`;
 }
 

@@ -94,6 +94,12 @@ export const ENDPOINTS: Endpoint[] = [
   ),
   { method: "GET", route: "/api/v1/projects/[projectId]/systems/[systemId]/conditions", path: `/api/v1/projects/{projectId}/systems/${UNKNOWN_ID}/conditions`, rule: { action: "project.view" }, ok: 404 },
   { method: "POST", route: "/api/v1/projects/[projectId]/systems/[systemId]/conditions", path: `/api/v1/projects/{projectId}/systems/${UNKNOWN_ID}/conditions`, rule: { action: "conditions.record" }, body: {}, ok: 404 },
+  // Traverses. Bodies name no section or traverse of the project (or an unknown one): a caller the
+  // policy allows gets 400 or 404, so the matrix changes nothing in the demo.
+  { method: "POST", route: "/api/v1/projects/[projectId]/traverses", path: "/api/v1/projects/{projectId}/traverses", rule: { action: "traverse.record" }, body: {}, ok: 400 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/traverses/[traverseId]", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}`, rule: { action: "project.view" }, ok: 404 },
+  { method: "PATCH", route: "/api/v1/projects/[projectId]/traverses/[traverseId]", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}`, rule: { action: "traverse.record" }, body: { version: 1, notes: "x" }, ok: 404 },
+  { method: "PUT", route: "/api/v1/projects/[projectId]/traverses/[traverseId]/readings", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}/readings`, rule: { action: "traverse.record" }, body: { version: 1, readings: [[null, null]] }, ok: 404 },
   ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
     (method): Endpoint => ({ method, route: "/api/[...path]", path: "/api/v1/no-such-endpoint", rule: { outsideProject: "public" }, body: method === "GET" ? undefined : {}, ok: 404 }),
   ),

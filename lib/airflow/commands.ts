@@ -16,7 +16,7 @@ import {
 import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS, MORE_FIELDS_KEY } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
 import { checkContinuity } from "./network";
-import { reduceTraverse, type ReadingsKind, type TraversePoint } from "./traverse";
+import { reduceTraverse, type ReadingsKind, type TraverseInput, type TraversePoint } from "./traverse";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { formatExpandedUncertainty, type FlowUncertainty, type UncertaintyTerms } from "./uncertainty";
 
@@ -175,14 +175,14 @@ function pointJson(p: TraversePoint) {
   return out;
 }
 
-function runTraverse(input: unknown): Result<unknown> {
-  const sizes = calcInputSizeProblems("traverse", input);
-  if (sizes) return refuse("traverse", sizes);
-  const parsed = traverseInputSchema.safeParse(input);
-  if (!parsed.success) return invalid("traverse", parsed.error, input);
-  const d = parsed.data;
+/**
+ * The engine's request for a validated traverse input (snake_case JSON, mm, Pa, °C): the one mapping
+ * from the calc contract to reduceTraverse, used by `npm run calc -- traverse`, the calc API, and
+ * every screen that reduces a stored traverse (through lib/traverse/engine-input.ts).
+ */
+export function traverseRequestFromJson(d: TraverseInputJson): TraverseInput {
   const ins = d.instrument;
-  const r = reduceTraverse({
+  return {
     ...layoutRequest(d),
     lines: d.lines ?? d.readings.length,
     pointsPerLine: d.points_per_line ?? d.readings[0]?.length,
@@ -210,7 +210,16 @@ function runTraverse(input: unknown): Result<unknown> {
       velocityFloorMS: ins.velocity_floor_m_s,
       repeatabilityPct: ins.repeatability_pct,
     },
-  });
+  };
+}
+
+function runTraverse(input: unknown): Result<unknown> {
+  const sizes = calcInputSizeProblems("traverse", input);
+  if (sizes) return refuse("traverse", sizes);
+  const parsed = traverseInputSchema.safeParse(input);
+  if (!parsed.success) return invalid("traverse", parsed.error, input);
+  const d = parsed.data;
+  const r = reduceTraverse(traverseRequestFromJson(d));
   const terms = (t: UncertaintyTerms) => ({
     dimension: pct(t.dimension),
     reading: pct(t.reading),

@@ -4,7 +4,8 @@ import type { AirSystem, DuctSection, Project } from "@/db/schema";
 import { fanSpeedForFlow, proportionalBalance, withinTolerance, type BranchPlan } from "@/lib/airflow/balancing";
 import { toleranceFor } from "@/lib/airflow/tolerance";
 import { checkContinuity, type Junction } from "@/lib/airflow/network";
-import { reduceTraverse, type TraverseResult } from "@/lib/airflow/traverse";
+import type { TraverseResult } from "@/lib/airflow/traverse";
+import { engineResultFor, engineSourceOf, gridOfRows } from "@/lib/traverse/engine-input";
 import type { Duct } from "@/lib/airflow/layout";
 
 export type Reduction = { ok: true; result: TraverseResult } | { ok: false; message: string };
@@ -15,46 +16,14 @@ export function ductOf(section: Pick<DuctSection, "shape" | "diameterMm" | "widt
     : { shape: "rectangular", widthM: (section.widthMm ?? 0) / 1000, heightM: (section.heightMm ?? 0) / 1000 };
 }
 
-/** Runs the engine on a stored traverse; an incomplete one says what is still missing. */
+/**
+ * Runs the engine on a stored traverse through the one stored-traverse → calc-input mapping
+ * (lib/traverse/engine-input.ts) that the traverse API and screens use; an incomplete traverse says
+ * what is still missing.
+ */
 export function reduceStoredTraverse(traverse: StoredTraverse, section: DuctSection, project: Project): Reduction {
-  if (traverse.dryBulbC === null) return { ok: false, message: "Dry-bulb temperature not recorded yet." };
-  if (traverse.relativeHumidityPct === null && traverse.wetBulbC === null)
-    return { ok: false, message: "Relative humidity or wet-bulb not recorded yet." };
-  const grid: (number | null)[][] = Array.from({ length: traverse.lines }, () => Array<number | null>(traverse.pointsPerLine).fill(null));
-  for (const r of traverse.readings) {
-    const row = grid[r.line - 1];
-    if (row && r.point >= 1 && r.point <= traverse.pointsPerLine) row[r.point - 1] = r.value;
-  }
-  if (traverse.readings.length === 0) return { ok: false, message: "No readings yet." };
-  try {
-    const result = reduceTraverse({
-      duct: ductOf(section),
-      method: traverse.method,
-      lines: traverse.lines,
-      pointsPerLine: traverse.pointsPerLine,
-      straightUpstreamM: section.straightUpstreamMm === null ? undefined : section.straightUpstreamMm / 1000,
-      straightDownstreamM: section.straightDownstreamMm === null ? undefined : section.straightDownstreamMm / 1000,
-      portOffsetM: traverse.portOffsetMm / 1000,
-      air: {
-        dryBulbC: traverse.dryBulbC,
-        // The project's altitude always goes with a measured barometer, so a sea-level-corrected reading is caught.
-        altitudeM: project.altitudeM,
-        ...(traverse.barometricPa !== null ? { barometricPa: traverse.barometricPa } : {}),
-        // Not recorded: the engine assumes 0 Pa and says so in its warnings and uncertainty.
-        staticPa: traverse.staticPa ?? undefined,
-        ...(traverse.relativeHumidityPct !== null
-          ? { relativeHumidityPct: traverse.relativeHumidityPct }
-          : { wetBulbC: traverse.wetBulbC ?? undefined }),
-      },
-      probeCoefficient: traverse.probeCoefficient,
-      standardDensityKgM3: project.standardDensityKgM3,
-      readings: grid,
-      readingsKind: traverse.readingsKind,
-    });
-    return { ok: true, result };
-  } catch (err) {
-    return { ok: false, message: err instanceof Error ? err.message : "The readings could not be reduced." };
-  }
+  const { readings } = gridOfRows(traverse.lines, traverse.pointsPerLine, traverse.readings);
+  return engineResultFor(engineSourceOf(traverse, section, project), readings);
 }
 
 export interface SectionView {
@@ -94,7 +63,11 @@ export interface SystemView {
 /** Design against measurement for every system: per-section % of design and continuity by mass at each junction. */
 export function buildAirflowView(project: Project, design: ProjectDesign, traverses: StoredTraverse[]): SystemView[] {
   const latestBySection = new Map<string, StoredTraverse>();
-  for (const t of traverses) if (!latestBySection.has(t.sectionId)) latestBySection.set(t.sectionId, t);
+  // The section's latest revision is its current traverse; earlier ones are history.
+  for (const t of traverses) {
+    const seen = latestBySection.get(t.sectionId);
+    if (!seen || t.revision > seen.revision) latestBySection.set(t.sectionId, t);
+  }
 
   return design.systems.map((system) => {
     const sections = design.sections.filter((s) => s.systemId === system.id);

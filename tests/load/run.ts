@@ -2,7 +2,7 @@
  * `npm run load`: the production build on loopback, driven by autocannon with signed-in users,
  * a mix of reads and saves. Bounded in time; sends traffic to 127.0.0.1 only.
  *
- *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write preference] [--postgres | --database postgres-url]
+ *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write readings|preference] [--postgres | --database postgres-url]
  *
  * Prints requests/s, p50/p95/p99 latency and errors for reads and writes separately, and exits 1
  * when any request failed. The server runs on a fresh embedded database in a temporary directory
@@ -156,7 +156,7 @@ async function main() {
       cookies[email] = res.headers.get("set-cookie")!.split(";")[0]!;
     }
     const list = (await (await fetch(`${base}/api/v1/projects`, { headers: { cookie: cookies["engineer@example.test"]! } })).json()) as { projects: { id: string; name: string }[] };
-    const ctx: LoadContext = { cookies, projects: Object.fromEntries(list.projects.map((p) => [p.name, p.id])) };
+    const ctx: LoadContext = { cookies, projects: Object.fromEntries(list.projects.map((p) => [p.name, p.id])), base, writers };
     const library = list.projects.find((p) => p.name.startsWith("Wrenfield"))!.id;
 
     const reads: CannonRequest[] = Object.values(cookies).flatMap((cookie) => [
@@ -164,7 +164,7 @@ async function main() {
       { method: "GET", path: `/api/v1/projects/${library}`, headers: { cookie } },
       { method: "GET", path: "/api/auth/me", headers: { cookie } },
     ]);
-    const writes = WRITE_MIXES[writeMix]!(ctx);
+    const writes = await WRITE_MIXES[writeMix]!(ctx);
 
     console.log(`\nDriving ${base} for ${duration} s: ${connections - writers} read connections, ${writers} write connections (${writeMix})…`);
     const pid = serverPid(server.pid!);

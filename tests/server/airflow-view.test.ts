@@ -103,7 +103,7 @@ describe("design against measured for the demo project", () => {
 
     // A re-traverse of the approved branch S1.1, returned by the reviewer, supersedes its approval.
     const east = views.find((v) => v.system.tag === "AHU-1")!.sections.find((r) => r.section.tag === "S1.1")!.section;
-    await db.insert(s.traverses).values({ sectionId: east.id, method: "log-linear", lines: 2, pointsPerLine: 8, status: "returned", createdAt: new Date(Date.now() + 60_000) });
+    await db.insert(s.traverses).values({ sectionId: east.id, method: "log-linear", lines: 2, pointsPerLine: 8, status: "returned", revision: 2, createdAt: new Date(Date.now() + 60_000) });
 
     const [design, traverses] = await Promise.all([getProjectDesign({ projectId: project!.id }), listTraversesForProject({ projectId: project!.id })]);
     const screenRows = buildAirflowView(project!, design, traverses).flatMap((v) => v.sections);

@@ -1,0 +1,316 @@
+"use client";
+
+/**
+ * The traverse on the technician's tablet: the cross-section with numbered points and insertion depths,
+ * the grid, and live results beside the operating conditions. Every keystroke goes through
+ * useOfflineDraft (`traverse:<id>`): kept on this device at once, sent as one versioned PUT of the whole
+ * grid when the network is there. A version conflict shows both grids and waits for a choice. The
+ * engine runs in the browser for the live numbers; once saved, the server's result is shown (the same
+ * calculation through the same input mapping).
+ */
+import dynamic from "next/dynamic";
+import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react";
+import { ConflictChoice } from "@/components/offline/conflict-choice";
+import { SyncStatus } from "@/components/offline/sync-status";
+import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
+import { summarizeConditions } from "@/lib/airflow/conditions";
+import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
+import { camelKeys, engineSourceOf, reduceTraverseSource, type Grid, type PointRef } from "@/lib/traverse/engine-input";
+import { plausibilityFlags } from "@/lib/traverse/plausibility";
+import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/result-types";
+import { formatQuantity, type UnitSystem } from "@/lib/units";
+import { buttonClasses } from "@/components/ui/button";
+import { AirEditor } from "./air-editor";
+import { ChartBoundary } from "./chart-boundary";
+import { KitEditor } from "./kit-editor";
+import { CrossSection } from "./cross-section";
+import { InsertionDepths } from "./insertion-depths";
+import { LiveResults } from "./live-results";
+import { MeterImport } from "./meter-import";
+import { ReadingGrid, readingText } from "./reading-grid";
+
+const loadChart = () => import("./profile-chart");
+const ProfileChart = dynamic(loadChart, {
+  ssr: false,
+  loading: () => <p className="text-ink-soft">Loading the profile chart…</p>,
+});
+
+export interface TraverseScreenProps {
+  projectId: string;
+  initial: Traverse;
+  units: UnitSystem;
+  /** The signed-in user may record readings (technicians); others see the traverse read-only. */
+  canRecord: boolean;
+  tolerance: { minusPct: number; plusPct: number };
+}
+
+export function TraverseScreen({ projectId, initial, units, canRecord, tolerance }: TraverseScreenProps) {
+  const resultsId = useId();
+  const resultsRef = useRef<HTMLHeadingElement>(null);
+  const editable = canRecord && (initial.status === "draft" || initial.status === "returned");
+  const toRequest = useCallback((d: TraverseDraft) => readingsRequest(projectId, initial.id, d), [projectId, initial.id]);
+  const draft = useOfflineDraft<TraverseDraft, Traverse>({
+    key: traverseDraftKey(initial.id),
+    initial: draftOf(initial),
+    initialVersion: initial.version,
+    initialServer: initial,
+    toRequest: editable ? toRequest : undefined,
+    fromServer: draftOf,
+  });
+  const server = draft.server ?? initial;
+  const value = draft.value;
+  const [focused, setFocused] = useState<string | null>(null);
+  const [changingKit, setChangingKit] = useState(false);
+  // Not in the first load, but fetched once the page is up, so the chart is on the device (and kept by
+  // the service worker) before the network goes.
+  useEffect(() => {
+    const idle = window.setTimeout(() => void loadChart().catch(() => undefined), 500);
+    return () => window.clearTimeout(idle);
+  }, []);
+  const round = server.section.shape === "round";
+  const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
+
+  // The same engine source the server builds, with the air and readings held on this device.
+  const air = value.air ?? { dryBulbC: server.air.dryBulbC, relativeHumidityPct: server.air.relativeHumidityPct, wetBulbC: server.air.wetBulbC, staticPa: server.air.staticPa, barometricPa: server.air.barometricPa };
+  const live = useMemo(() => {
+    const source = engineSourceOf(
+      {
+        method: server.method,
+        lines: server.lines,
+        pointsPerLine: server.pointsPerLine,
+        portOffsetMm: server.portOffsetMm,
+        readingsKind: server.readingsKind,
+        probeCoefficient: server.instrument.probeCoefficient,
+        probeHeadDiameterMm: server.instrument.probeHeadDiameterMm,
+        instrumentAccuracy: server.instrument.accuracy as Record<string, number>,
+        instrumentStandardDensityKgM3: value.instrument.standardDensityKgM3,
+        dryBulbC: air.dryBulbC,
+        relativeHumidityPct: air.relativeHumidityPct,
+        wetBulbC: air.wetBulbC,
+        barometricPa: air.barometricPa,
+        staticPa: air.staticPa,
+      },
+      server.section,
+      server.project,
+    );
+    return reduceTraverseSource(source, value.readings, value.unreadable);
+  }, [server, value.readings, value.unreadable, value.instrument.standardDensityKgM3, air.dryBulbC, air.relativeHumidityPct, air.wetBulbC, air.barometricPa, air.staticPa]);
+
+  const synced = draft.syncState === "saved" && server.version === draft.version;
+  const result: TraverseResultJson | null = synced ? server.result : live.ok ? (camelKeys(live.output) as TraverseResultJson) : null;
+  const resultCounts = live.counts;
+  const shownResult = result ? { ...result, counts: result.counts ?? resultCounts } : null;
+  const problem = synced ? server.resultError?.message : live.ok ? null : live.message;
+
+  const points = useMemo(() => new Map<string, TraversePointJson>((result?.points ?? []).map((p) => [`${p.line}:${p.point}`, p])), [result]);
+  const reading = server.instrument.reading;
+  const flags = useMemo(
+    () => plausibilityFlags(value.readings, { kind: quantity, rangeMin: reading?.rangeMin ?? null, rangeMax: reading?.rangeMax ?? null, format: (v) => formatQuantity(units, quantity, v) }),
+    [value.readings, quantity, reading?.rangeMin, reading?.rangeMax, units],
+  );
+  const layout = server.layout;
+  const depths = layout ? layout.lines.map((l) => l.points.map((p) => p.depthMm)) : [];
+  const duct = round ? { shape: "round" as const, diameterMm: server.section.diameterMm ?? 0 } : { shape: "rectangular" as const, widthMm: server.section.widthMm ?? 0, heightMm: server.section.heightMm ?? 0 };
+  const unreadableKeys = useMemo(() => new Set(value.unreadable.map(([k, i]) => `${k}:${i}`)), [value.unreadable]);
+  const filled = useMemo(() => new Map([...points.values()].filter((p) => p.filledVelocityMS !== undefined).map((p) => [`${p.line}:${p.point}`, p.filledVelocityMS!])), [points]);
+  const velocities = value.readings.map((row, k) => row.map((_, i) => points.get(`${k}:${i}`)?.velocityMS ?? null));
+  const hasReadings = value.readings.some((row) => row.some((v) => v !== null));
+
+  const setGrid = (next: { readings: Grid; unreadable: PointRef[] }) => draft.setValue((prev) => ({ ...prev, readings: next.readings, unreadable: next.unreadable }));
+  const conditions = server.conditions;
+
+  return (
+    <div className="grid gap-gutter">
+      {editable && (
+        <SyncStatus
+          syncState={draft.syncState}
+          error={draft.error}
+          nextAttemptAt={draft.nextAttemptAt}
+          online={draft.online}
+          deviceError={draft.deviceError}
+          retry={draft.retry}
+          what="the readings"
+          className="sticky top-0 z-10"
+        />
+      )}
+      {!editable && (
+        <p role="note" className="rounded-card border border-line-strong bg-paper-sunk p-3">
+          {canRecord
+            ? `This traverse was ${server.status === "approved" ? "approved" : "submitted for review"}: its readings are locked. Start a re-traverse of ${server.sectionTag} to take new readings.`
+            : "Read only: technicians record traverses."}
+        </p>
+      )}
+      {draft.conflict && (
+        <ConflictChoice
+          conflict={draft.conflict}
+          what={`readings of ${server.sectionTag}`}
+          onChoose={(c) => draft.resolveConflict(c)}
+          render={(d) => <GridSummary readings={d.readings} unreadable={d.unreadable} quantity={quantity} units={units} round={round} />}
+        />
+      )}
+
+      <section aria-labelledby={`${resultsId}-plane`} className="grid gap-4 rounded-card border border-line bg-paper-raised p-gutter">
+        <h2 id={`${resultsId}-plane`}>Plane and probe marks</h2>
+        {layout ? (
+          <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+            <CrossSection duct={duct} layout={layout} title={`Cross-section of ${server.sectionTag} with the numbered traverse points and ports`} highlight={focused} />
+            <InsertionDepths layout={layout} units={units} portOffsetMm={server.portOffsetMm} round={round} />
+          </div>
+        ) : (
+          <p className="text-fault">The layout could not be drawn.</p>
+        )}
+        {layout?.warnings.map((w) => (
+          <p key={w} className="text-sm font-semibold text-caution">
+            ▲ {w}
+          </p>
+        ))}
+      </section>
+
+      <div className="grid gap-gutter xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <section aria-labelledby={`${resultsId}-grid`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-grid`}>Readings</h2>
+          <p className="text-sm text-ink-soft">
+            {quantity === "pressure" ? "Velocity pressure" : server.readingsKind === "velocity_standard" ? "Standard velocity" : "Velocity"} at each point, in {formatQuantity(units, quantity, 0).replace(/^[-\d.,\s]+/, "")}.
+            {editable && " Enter moves to the next point. Mark a point the probe cannot reach (an obstruction) as unreadable: the engine integrates around it."}
+          </p>
+          <ReadingGrid
+            readings={value.readings}
+            unreadable={value.unreadable}
+            quantity={quantity}
+            units={units}
+            depthsMm={depths}
+            points={points}
+            flags={flags}
+            round={round}
+            onChange={editable ? setGrid : null}
+            onFinished={() => resultsRef.current?.focus()}
+            onFocusPoint={setFocused}
+          />
+          {editable && (
+            <details className="rounded-card border border-line p-3">
+              <summary className="min-h-touch cursor-pointer py-2 font-semibold">Import readings from a meter&apos;s file</summary>
+              <MeterImport
+                lines={server.lines}
+                pointsPerLine={server.pointsPerLine}
+                kind={quantity}
+                units={units}
+                round={round}
+                hasReadings={hasReadings}
+                onAccept={(grid) =>
+                  draft.setValue((prev) => ({
+                    ...prev,
+                    readings: grid,
+                    // A point the file gives a value for is read after all.
+                    unreadable: prev.unreadable.filter(([k, i]) => grid[k]?.[i] === null),
+                  }))
+                }
+              />
+            </details>
+          )}
+        </section>
+
+        <section aria-labelledby={`${resultsId}-results`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-results`} ref={resultsRef} tabIndex={-1}>
+            Results
+          </h2>
+          {shownResult ? (
+            <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={`${resultsId}-verdict`} />
+          ) : (
+            <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
+              {problem ?? "No readings yet."} {problem === "No readings yet." || !problem ? "Results appear as soon as the first value lands." : ""}
+            </p>
+          )}
+          <div className="rounded-card border border-line bg-paper p-3">
+            <h3 className="font-semibold">Operating conditions</h3>
+            {conditions ? (
+              <p>
+                {summarizeConditions(
+                  { fanSpeedRpm: conditions.fanSpeedRpm, vfdHz: conditions.vfdHz, boxes: conditions.boxes, outsideAirDamperPct: conditions.outsideAirDamperPct, ductStaticSetpointPa: conditions.ductStaticSetpointPa, filterState: conditions.filterState },
+                  (pa) => formatQuantity(units, "pressure", pa),
+                )}
+              </p>
+            ) : (
+              <p className="text-caution">No operating conditions recorded with these readings: they cannot be compared with other readings without a warning.</p>
+            )}
+          </div>
+        </section>
+      </div>
+
+      {result && result.points.some((p) => p.velocityMS !== null) && (
+        <div className="grid gap-gutter lg:grid-cols-2">
+          <section aria-labelledby={`${resultsId}-map`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+            <h2 id={`${resultsId}-map`}>Velocity map</h2>
+            <p className="text-sm text-ink-soft">Velocity at each point in {formatQuantity(units, "velocity", 0).replace(/^[-\d.,\s]+/, "")}; darker is faster. × unreadable, – not read, italics filled by the engine.</p>
+            {layout && (
+              <CrossSection
+                duct={duct}
+                layout={layout}
+                title={`Velocity map of ${server.sectionTag}`}
+                values={{ velocities, unreadable: unreadableKeys, filled, format: (ms) => formatQuantity(units, "velocity", ms, { withUnit: false, decimals: units === "IP" ? 0 : 1 }) }}
+              />
+            )}
+          </section>
+          <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+            <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
+            <ChartBoundary>
+              <ProfileChart points={result.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
+            </ChartBoundary>
+          </section>
+        </div>
+      )}
+
+      {editable && (
+        <section aria-labelledby={`${resultsId}-air`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-air`}>Air at the plane</h2>
+          <AirEditor air={value.air} units={units} altitudeM={server.project.altitudeM} onChange={(a) => draft.setValue((prev) => ({ ...prev, air: a }))} />
+        </section>
+      )}
+      {editable && (
+        <section aria-labelledby={`${resultsId}-kit`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-kit`}>Instruments and operating conditions</h2>
+          {changingKit ? (
+            <KitEditor
+              projectId={projectId}
+              traverse={server}
+              value={value}
+              units={units}
+              onChange={(patch) => draft.setValue((prev) => ({ ...prev, ...patch, instrument: { ...prev.instrument, ...patch.instrument } }))}
+            />
+          ) : (
+            <div>
+              <button type="button" className={buttonClasses("secondary")} onClick={() => setChangingKit(true)}>
+                Change instruments or conditions
+              </button>
+            </div>
+          )}
+        </section>
+      )}
+    </div>
+  );
+}
+
+/** One version of the grid, compact, for the conflict choice. */
+function GridSummary({ readings, unreadable, quantity, units, round }: { readings: Grid; unreadable: readonly PointRef[]; quantity: "pressure" | "velocity"; units: UnitSystem; round: boolean }) {
+  const blocked = new Set(unreadable.map(([k, i]) => `${k}:${i}`));
+  return (
+    <div className="overflow-x-auto">
+      <table className="border-collapse text-right text-sm">
+        <caption className="sr-only">Readings by {round ? "diameter" : "line"} and point</caption>
+        <tbody>
+          {readings.map((row, k) => (
+            <tr key={k} className="border-t border-line">
+              <th scope="row" className="px-1 text-left">
+                {k + 1}
+              </th>
+              {row.map((v, i) => (
+                <td key={i} className="num px-1">
+                  {blocked.has(`${k}:${i}`) ? "×" : v === null ? "–" : readingText(v, quantity, units)}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
