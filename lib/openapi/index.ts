@@ -2,9 +2,10 @@ import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
 import { designOperations } from "./operations/design";
 import { fieldOperations } from "./operations/field";
+import { terminalOperations } from "./operations/terminals";
 
 /** Every documented operation; each area adds its own list here. */
-export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations, ...fieldOperations];
+export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations, ...fieldOperations, ...terminalOperations];
 
 export function openApiDocument() {
   return buildOpenApiDocument(OPERATIONS, { version: "1" });
