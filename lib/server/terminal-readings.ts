@@ -12,10 +12,10 @@ import { calibrationProblems } from "@/lib/instruments/usability";
 import { computeReadingFlow, ReadingInputError, verdictWords, type ReadingValues } from "@/lib/terminals/reading";
 import { SETPOINT_LABELS, setpointsFor } from "@/lib/terminals/setpoints";
 import { isTerminalUnit } from "@/lib/validation/design";
-import { formatQuantity } from "@/lib/units";
+import { formatQuantity, unitSystemFor } from "@/lib/units";
 import type { TerminalReadingCreate } from "@/lib/validation/terminal-readings";
 import { reduceStoredTraverse } from "./airflow-view";
-import { apiFormat, designOf, terminalReadingJson, type TerminalReadingJson } from "./terminal-reading-json";
+import { designOf, formatFor, terminalReadingJson, type TerminalReadingJson } from "./terminal-reading-json";
 
 export interface TerminalPlace {
   terminal: Terminal;
@@ -56,7 +56,7 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
 
   // A retry of a reading already stored answers with it, whatever has changed since (the register, the design).
   if (body.id) {
-    const prior = await findExisting(body.id, project, place);
+    const prior = await findExisting(body.id, user, project, place);
     if (prior) return prior;
   }
 
@@ -153,7 +153,7 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
   if (traverseFlow) flow = { ...traverseFlow, warnings: [] };
   else {
     try {
-      flow = computeReadingFlow(values, designOf(terminal), project, { format: apiFormat(project) });
+      flow = computeReadingFlow(values, designOf(terminal), project, { format: formatFor(user, project) });
     } catch (err) {
       if (err instanceof ReadingInputError || err instanceof EngineInputError) return invalid(err.fields);
       throw err;
@@ -193,8 +193,8 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
   const outcome = await recordTerminalReading({ systemId: system.id, terminalId: terminal.id, takenBy: user.id, values: stored });
   if (outcome.status === "conflict") return { status: 409, message: "That id belongs to another reading; the device should choose a new one.", fields: { id: "is already used by another reading" } };
   const instruments = await instrumentMap();
-  const reading = terminalReadingJson(outcome.row, { terminal, project, instruments });
-  const warnings = [...flow.warnings.filter((w) => !reading.warnings.includes(w)), ...(await conditionWarnings(outcome.row.id, project, place, conditions, values.setpoint))];
+  const reading = terminalReadingJson(outcome.row, { terminal, project, instruments, format: formatFor(user, project) });
+  const warnings = [...flow.warnings.filter((w) => !reading.warnings.includes(w)), ...(await conditionWarnings(outcome.row.id, user, project, place, conditions, values.setpoint))];
   if (outcome.status === "existing") return { status: 200, reading, warnings };
 
   await recordAudit({
@@ -224,11 +224,11 @@ function invalid(fields: Record<string, string>): RecordOutcome {
   return { status: 400, message: `The reading is not valid: check ${names.slice(0, 3).join(", ")}${names.length > 3 ? ` and ${names.length - 3} more` : ""}.`, fields };
 }
 
-async function findExisting(id: string, project: Project, place: TerminalPlace): Promise<RecordOutcome | null> {
+async function findExisting(id: string, user: SessionUser, project: Project, place: TerminalPlace): Promise<RecordOutcome | null> {
   const row = await getTerminalReading({ id });
   if (!row) return null;
   if (row.terminalId !== place.terminal.id) return { status: 409, message: "That id belongs to another reading; the device should choose a new one.", fields: { id: "is already used by another reading" } };
-  const reading = terminalReadingJson(row, { terminal: place.terminal, project, instruments: await instrumentMap() });
+  const reading = terminalReadingJson(row, { terminal: place.terminal, project, instruments: await instrumentMap(), format: formatFor(user, project) });
   return { status: 200, reading, warnings: [] };
 }
 
@@ -237,14 +237,14 @@ async function findExisting(id: string, project: Project, place: TerminalPlace):
  * reading against the terminal's previous one at the same setpoint, and a terminal unit read at a
  * setpoint other than the one the recorded conditions forced the units to.
  */
-async function conditionWarnings(readingId: string, project: Project, place: TerminalPlace, conditions: ConditionsRow | null, setpoint: TerminalSetpoint): Promise<string[]> {
+async function conditionWarnings(readingId: string, user: SessionUser, project: Project, place: TerminalPlace, conditions: ConditionsRow | null, setpoint: TerminalSetpoint): Promise<string[]> {
   const out: string[] = [];
   const { rows } = await listTerminalReadings({ projectId: project.id, terminalId: place.terminal.id, limit: 50 });
   const index = rows.findIndex((r) => r.id === readingId);
   const previous = rows.slice(index + 1).find((r) => r.setpoint === setpoint);
   if (previous && conditions) {
     const previousConditions = previous.conditionsId ? await getConditions({ id: previous.conditionsId }) : null;
-    const differences = compareConditions(previousConditions, conditions, { labels: [`the previous ${previous.phase} reading`, "this reading"], formatPressure: (pa) => formatQuantity(project.unitSystem, "pressure", pa) });
+    const differences = compareConditions(previousConditions, conditions, { labels: [`the previous ${previous.phase} reading`, "this reading"], formatPressure: (pa) => formatQuantity(unitSystemFor(user, project), "pressure", pa) });
     if (differences.length > 0)
       out.push(`Not comparable with the previous ${previous.phase} reading of ${place.terminal.tag} without care: ${differences.map((d) => d.message).join(" ")}`);
   }

@@ -4,7 +4,7 @@ import { listConditionsByIds, listTerminalReadings, listTerminalSets } from "@/d
 import { listTerminalsOfProject } from "@/db/queries/design";
 import { conditionsJson } from "@/lib/server/field-json";
 import { defineRoute, jsonError } from "@/lib/server/route";
-import { terminalReadingJson } from "@/lib/server/terminal-reading-json";
+import { formatFor, terminalReadingJson } from "@/lib/server/terminal-reading-json";
 import { instrumentMap } from "@/lib/server/terminal-readings";
 
 /**
@@ -12,8 +12,9 @@ import { instrumentMap } from "@/lib/server/terminal-readings";
  * terminal sets they belong to and the operating conditions they name, so a screen can compare them.
  * Any member of the project.
  */
-export const GET = defineRoute({ project: { param: "projectId", action: "project.view" } }, async ({ req, access }) => {
+export const GET = defineRoute({ project: { param: "projectId", action: "project.view" } }, async ({ req, user, access }) => {
   const project = access!.project;
+  const format = formatFor(user, project);
   const query = req.nextUrl.searchParams;
   for (const key of query.keys()) if (key !== "systemId") return jsonError(400, `Unknown query parameter ${key.slice(0, 40)}.`, { [key.slice(0, 40)]: "is not a parameter of this list; only systemId is" });
   const systemId = query.get("systemId") ?? undefined;
@@ -27,7 +28,7 @@ export const GET = defineRoute({ project: { param: "projectId", action: "project
   const byId = new Map(terminals.map((t) => [t.id, t]));
   const readings = rows.flatMap((r) => {
     const terminal = byId.get(r.terminalId);
-    return terminal ? [terminalReadingJson(r, { terminal, project, instruments })] : [];
+    return terminal ? [terminalReadingJson(r, { terminal, project, instruments, format })] : [];
   });
   const conditions = (await listConditionsByIds({ ids: rows.flatMap((r) => (r.conditionsId ? [r.conditionsId] : [])) })).map(conditionsJson);
   return NextResponse.json({
