@@ -168,7 +168,7 @@ export function BranchTable(props: BranchTableProps) {
                             </button>
                           )}
                           {i === 0 && readings.length > 0 && (
-                            <button type="button" aria-expanded={historyShown} className={buttonClasses("quiet", "px-2")} onClick={() => props.onToggleHistory(terminal.id)}>
+                            <button type="button" aria-expanded={historyShown} className={buttonClasses("quiet", "whitespace-nowrap px-1")} onClick={() => props.onToggleHistory(terminal.id)}>
                               History ({readings.length})<span className="sr-only"> of {terminal.tag}</span>
                             </button>
                           )}

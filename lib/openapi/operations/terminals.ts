@@ -9,7 +9,7 @@ const READING_FIELDS =
   "`flowM3S` is the airflow at the air's density at the terminal, `standardFlowM3S` the same mass flow at the project's standard density, which design airflows are scheduled at; " +
   "`pctOfDesign` and `withinTolerance` compare the standard airflow with the design at the setpoint read, in the project's band for outlets or terminal units (null where nothing is scheduled). " +
   "`flags` say in words what is implausible (negative, above 3 × or below a tenth of design, beyond the instrument's range, a final outlet reading without the damper marked); the reading is kept whatever they say. " +
-  "`suggestedFlowFactor` = controllerFlowFactor × (standardFlowM3S ÷ controllerFlowM3S)²: the controller's factor multiplies the velocity pressure its sensor reads, and the airflow goes as its square root.";
+  "The words (`steps`, `warnings`, `flags`) use the caller's units (their preference, else the project's). `suggestedFlowFactor` = controllerFlowFactor × (standardFlowM3S ÷ controllerFlowM3S)²: the controller's factor multiplies the velocity pressure its sensor reads, and the airflow goes as its square root.";
 
 /** Readings of air outlets, inlets and terminal units. */
 export const terminalOperations: Operation[] = [
