@@ -39,6 +39,8 @@ export const terminalReadingPhase = pgEnum("terminal_reading_phase", ["initial",
 export const terminalReadingMethod = pgEnum("terminal_reading_method", ["hood", "velocity_area", "traverse"]);
 /** The operating point a terminal was read at: outlets at their design setting, terminal units forced to a setpoint. */
 export const terminalSetpoint = pgEnum("terminal_setpoint", ["design", "maximum", "minimum", "heating"]);
+/** Anemometer velocities at an outlet: at the air's own density, or referred to standard density. */
+export const velocityBasis = pgEnum("velocity_basis", ["actual", "standard"]);
 export const instrumentKind = pgEnum("instrument_kind", [
   "manometer",
   "pitot_tube",
@@ -64,6 +66,7 @@ export type TerminalType = (typeof terminalType.enumValues)[number];
 export type TerminalReadingPhase = (typeof terminalReadingPhase.enumValues)[number];
 export type TerminalReadingMethod = (typeof terminalReadingMethod.enumValues)[number];
 export type TerminalSetpoint = (typeof terminalSetpoint.enumValues)[number];
+export type VelocityBasis = (typeof velocityBasis.enumValues)[number];
 export type InstrumentKind = (typeof instrumentKind.enumValues)[number];
 export type BoxOverride = (typeof boxOverride.enumValues)[number];
 export type FilterState = (typeof filterState.enumValues)[number];
@@ -323,7 +326,11 @@ export const terminalSets = pgTable(
     createdAt: createdAt(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("terminal_sets_system_idx").on(t.systemId)],
+  (t) => [
+    index("terminal_sets_system_idx").on(t.systemId),
+    // A system's readings go into its one open set (draft, or returned for rework); a submitted or approved set is closed.
+    uniqueIndex("terminal_sets_one_open_idx").on(t.systemId).where(sql`${t.status} in ('draft', 'returned')`),
+  ],
 );
 
 /** A pitot or anemometer traverse across one duct section, with the air conditions at the plane. */
@@ -433,20 +440,30 @@ export const terminalReadings = pgTable(
     hoodCorrectionFactor: doublePrecision("hood_correction_factor"),
     hoodDensityCorrected: boolean("hood_density_corrected"),
     hoodBackPressureCompensated: boolean("hood_back_pressure_compensated"),
-    /** Velocity × effective area: the point velocities (m/s) and the effective area used (m²). */
+    /** Velocity × effective area: the point velocities (m/s), whether they are actual or standard, and the effective area used (m²). */
     velocitiesMS: jsonb("velocities_m_s").$type<number[]>(),
+    velocityBasis: velocityBasis("velocity_basis"),
     effectiveAreaM2: doublePrecision("effective_area_m2"),
-    /** A traverse of the terminal's own duct. */
+    /** A traverse of the terminal's own duct, and the traverse's version whose airflow was taken. */
     traverseId: uuid("traverse_id").references(() => traverses.id, { onDelete: "set null" }),
-    /** Air temperature at the terminal, for the density correction. */
+    traverseVersion: integer("traverse_version"),
+    /** Air at the terminal, for the density correction: dry-bulb, RH when measured, a barometer's reading when one was read. */
     dryBulbC: doublePrecision("dry_bulb_c"),
+    relativeHumidityPct: doublePrecision("relative_humidity_pct"),
+    barometricPa: doublePrecision("barometric_pa"),
+    /** The air density at the terminal the reading was referred with (kg/m³), kept so the record explains itself. */
+    densityKgM3: doublePrecision("density_kg_m3"),
     flowM3S: doublePrecision("flow_m3_s").notNull(),
     standardFlowM3S: doublePrecision("standard_flow_m3_s").notNull(),
     /** Terminal units: the airflow the box controller displayed at the same moment. */
     controllerFlowM3S: doublePrecision("controller_flow_m3_s"),
+    /** Terminal units: the controller's flow factor as found at the reading (the design's when not stated). */
+    controllerFlowFactor: doublePrecision("controller_flow_factor"),
     damperMarked: boolean("damper_marked").notNull().default(false),
     conditionsId: uuid("conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
     instrumentId: uuid("instrument_id").references(() => instruments.id, { onDelete: "set null" }),
+    /** The thermometer or thermo-hygrometer that read the air at the terminal, when one was named. */
+    airInstrumentId: uuid("air_instrument_id").references(() => instruments.id, { onDelete: "set null" }),
     overdueReason: text("overdue_reason").notNull().default(""),
     notes: text("notes").notNull().default(""),
     takenBy: uuid("taken_by").references(() => users.id, { onDelete: "set null" }),

@@ -2,7 +2,8 @@ import type { BranchPlan, TerminalRole } from "@/lib/airflow/balancing";
 import type { FanAid } from "@/lib/server/airflow-view";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 
-const ROLE: Record<TerminalRole, string> = {
+/** What each step of a proportional-balancing plan asks for, in words. */
+export const BALANCING_ROLES: Record<TerminalRole, string> = {
   index: "Reference: leave fully open",
   throttle: "Throttle to",
   leave: "Leave: already close to the reference ratio",
@@ -22,7 +23,7 @@ export function BalancingAids({ plans, fan, units }: { plans: BranchPlan[]; fan:
           <ol className="mt-1 list-decimal space-y-1 pl-6">
             {plan.steps.map((step) => (
               <li key={step.id} className="num">
-                <strong>{step.id}</strong> ratio {step.ratio.toFixed(3)} — {ROLE[step.role]}
+                <strong>{step.id}</strong> ratio {step.ratio.toFixed(3)} — {BALANCING_ROLES[step.role]}
                 {step.role === "throttle" && step.targetM3S !== null && (
                   <>
                     {" "}

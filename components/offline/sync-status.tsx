@@ -21,6 +21,8 @@ export interface SyncStatusProps {
   what?: string;
   /** true: an entry kept on the device only until it is sent on purpose (a form before "Record"). */
   notSentYet?: boolean;
+  /** `what` names one thing ("the initial reading of SD-101"): the sentence says "is sent", not "are sent". */
+  singular?: boolean;
   className?: string;
 }
 
@@ -99,12 +101,13 @@ function useSecondsUntil(at: number | null | undefined): number | null {
 }
 
 /** One sentence, after the status word, that says what happens next. */
-export function syncSentence(p: Pick<SyncStatusProps, "syncState" | "error" | "online" | "what" | "notSentYet">): string {
+export function syncSentence(p: Pick<SyncStatusProps, "syncState" | "error" | "online" | "what" | "notSentYet" | "singular">): string {
   const what = p.what ?? "your entries";
+  const one = p.singular === true;
   switch (p.syncState) {
     case "saved-on-device":
-      if (p.notSentYet) return `Kept here as you type; ${what} go to the server when you record them.`;
-      if (p.online === false) return `No network: ${what} are sent when the connection returns.`;
+      if (p.notSentYet) return `Kept here as you type; ${what} ${one ? "goes" : "go"} to the server when you record ${one ? "it" : "them"}.`;
+      if (p.online === false) return `No network: ${what} ${one ? "is" : "are"} sent when the connection returns.`;
       if (p.error) return `${p.error.message} Trying again.`;
       return `Sending ${what} shortly.`;
     case "saving":
@@ -114,7 +117,7 @@ export function syncSentence(p: Pick<SyncStatusProps, "syncState" | "error" | "o
     case "conflict":
       return "Someone saved a different version first. Nothing was overwritten: choose which to keep.";
     case "error":
-      return `${p.error?.message ?? "The server refused the change."} ${what.charAt(0).toUpperCase() + what.slice(1)} stay on this device.`;
+      return `${p.error?.message ?? "The server refused the change."} ${what.charAt(0).toUpperCase() + what.slice(1)} ${one ? "stays" : "stay"} on this device.`;
   }
 }
 

@@ -83,7 +83,7 @@ export async function getInstrumentUsage({ id }: { id: string }): Promise<Instru
     .select({ n: count(), last: max(traverses.takenAt) })
     .from(traverses)
     .where(or(eq(traverses.instrumentId, id), eq(traverses.probeInstrumentId, id), eq(traverses.airInstrumentId, id)));
-  const [r] = await db.select({ n: count(), last: max(terminalReadings.takenAt) }).from(terminalReadings).where(eq(terminalReadings.instrumentId, id));
+  const [r] = await db.select({ n: count(), last: max(terminalReadings.takenAt) }).from(terminalReadings).where(or(eq(terminalReadings.instrumentId, id), eq(terminalReadings.airInstrumentId, id)));
   const dates = [t?.last, r?.last].filter((d): d is Date => d instanceof Date);
   return {
     traverses: t?.n ?? 0,
@@ -105,7 +105,7 @@ export async function deleteUnusedInstrument({ id }: { id: string }): Promise<"d
       .select({ n: count() })
       .from(traverses)
       .where(or(eq(traverses.instrumentId, id), eq(traverses.probeInstrumentId, id), eq(traverses.airInstrumentId, id)));
-    const [r] = await tx.select({ n: count() }).from(terminalReadings).where(eq(terminalReadings.instrumentId, id));
+    const [r] = await tx.select({ n: count() }).from(terminalReadings).where(or(eq(terminalReadings.instrumentId, id), eq(terminalReadings.airInstrumentId, id)));
     if ((t?.n ?? 0) + (r?.n ?? 0) > 0) return "used";
     await tx.delete(instruments).where(eq(instruments.id, id));
     return "deleted";
@@ -135,7 +135,7 @@ export async function listInstrumentsUsedInProject({ projectId }: { projectId: s
     .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
     .where(eq(airSystems.projectId, projectId));
   const terminalRows = await db
-    .select({ a: terminalReadings.instrumentId, at: terminalReadings.takenAt })
+    .select({ a: terminalReadings.instrumentId, b: terminalReadings.airInstrumentId, at: terminalReadings.takenAt })
     .from(terminalReadings)
     .innerJoin(terminals, eq(terminals.id, terminalReadings.terminalId))
     .innerJoin(ductSections, eq(ductSections.id, terminals.sectionId))
@@ -150,7 +150,7 @@ export async function listInstrumentsUsedInProject({ projectId }: { projectId: s
     usage.set(id, u);
   };
   for (const r of traverseRows) for (const id of new Set([r.a, r.b, r.c])) note(id, r.at);
-  for (const r of terminalRows) note(r.a, r.at);
+  for (const r of terminalRows) for (const id of new Set([r.a, r.b])) note(id, r.at);
   if (usage.size === 0) return [];
   const rows = await db.select().from(instruments).where(inArray(instruments.id, [...usage.keys()])).orderBy(desc(instruments.updatedAt));
   return rows

@@ -5,6 +5,7 @@ import * as s from "../schema";
 import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./clinic";
 import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
+import { seedTerminalReadings } from "./terminal-readings";
 
 /**
  * The demo scenario: an invented public library with two air systems, and an invented clinic
@@ -72,6 +73,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
     await seedLibrary(tx, library!.id, userId("tech@example.test"), userId("cx@example.test"));
     await seedClinic(tx, clinic!.id);
     await seedFieldKit(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
+    await seedTerminalReadings(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
 
     await tx.insert(s.auditLog).values({
       userId: userId("admin@example.test"),

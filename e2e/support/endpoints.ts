@@ -100,6 +100,10 @@ export const ENDPOINTS: Endpoint[] = [
   { method: "GET", route: "/api/v1/projects/[projectId]/traverses/[traverseId]", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}`, rule: { action: "project.view" }, ok: 404 },
   { method: "PATCH", route: "/api/v1/projects/[projectId]/traverses/[traverseId]", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}`, rule: { action: "traverse.record" }, body: { version: 1, notes: "x" }, ok: 404 },
   { method: "PUT", route: "/api/v1/projects/[projectId]/traverses/[traverseId]/readings", path: `/api/v1/projects/{projectId}/traverses/${UNKNOWN_ID}/readings`, rule: { action: "traverse.record" }, body: { version: 1, readings: [[null, null]] }, ok: 404 },
+  // Terminal readings: members read; technicians record (an unknown terminal answers 404 before the body is read).
+  { method: "GET", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "project.view" }, ok: 404 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "terminal.record" }, body: {}, ok: 404 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/terminal-readings", path: "/api/v1/projects/{projectId}/terminal-readings", rule: { action: "project.view" }, ok: 200 },
   ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
     (method): Endpoint => ({ method, route: "/api/[...path]", path: "/api/v1/no-such-endpoint", rule: { outsideProject: "public" }, body: method === "GET" ? undefined : {}, ok: 404 }),
   ),

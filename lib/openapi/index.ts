@@ -2,10 +2,11 @@ import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
 import { designOperations } from "./operations/design";
 import { fieldOperations } from "./operations/field";
+import { terminalOperations } from "./operations/terminals";
 import { traverseOperations } from "./operations/traverses";
 
 /** Every documented operation; each area adds its own list here. */
-export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations, ...fieldOperations, ...traverseOperations];
+export const OPERATIONS: readonly Operation[] = [...coreOperations, ...designOperations, ...fieldOperations, ...traverseOperations, ...terminalOperations];
 
 export function openApiDocument() {
   return buildOpenApiDocument(OPERATIONS, { version: "1" });

@@ -277,7 +277,8 @@ describe("duct sections", () => {
     const s11 = await sectionByTag(library, "S1.1");
     const held = await callRoute(section.DELETE, { method: "DELETE", params: { projectId: library, sectionId: s11.id } });
     expect(held.status).toBe(409);
-    expect(held.body.error.message).toMatch(/^Section S1\.1 cannot be deleted: it holds field data \(1 traverse \(on S1\.1\)\)/);
+    // The demo's traverse of S1.1 and the initial readings of its four diffusers.
+    expect(held.body.error.message).toMatch(/^Section S1\.1 cannot be deleted: it holds field data \(1 traverse \(on S1\.1\); 4 terminal readings \(of SD-101, SD-102, SD-103, SD-104\)\)/);
     const s1 = await sectionByTag(library, "S1");
     const trunk = await callRoute(section.DELETE, { method: "DELETE", params: { projectId: library, sectionId: s1.id } });
     expect(trunk.status).toBe(409);
@@ -349,13 +350,14 @@ describe("terminals", () => {
     as("engineer");
     const db = await getDb();
     const listed = (await callRoute(terminals.GET, { params: { projectId: library } })).body.terminals;
-    const read = listed.find((t: { tag: string }) => t.tag === "SD-101");
+    // SD-111 has no demo reading; one joins the system's open set (the demo's initial readings).
+    const read = listed.find((t: { tag: string }) => t.tag === "SD-111");
     const ahu = await systemByTag(library, "AHU-1");
-    const [set] = await db.insert(s.terminalSets).values({ systemId: ahu.id }).returning();
+    const [set] = await db.select().from(s.terminalSets).where(eq(s.terminalSets.systemId, ahu.id));
     await db.insert(s.terminalReadings).values({ terminalId: read.id, setId: set!.id, phase: "initial", method: "hood", hoodFlowM3S: 0.36, flowM3S: 0.36, standardFlowM3S: 0.36 });
     const held = await callRoute(terminal.DELETE, { method: "DELETE", params: { projectId: library, terminalId: read.id } });
     expect(held.status).toBe(409);
-    expect(held.body.error.message).toContain("1 terminal reading (of SD-101)");
+    expect(held.body.error.message).toContain("1 terminal reading (of SD-111)");
     const [still] = await db.select().from(s.terminalReadings).where(eq(s.terminalReadings.terminalId, read.id));
     expect(still).toBeDefined();
     // The system now holds a set of terminal readings as well.
