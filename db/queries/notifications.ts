@@ -1,5 +1,5 @@
 import "server-only";
-import { and, count, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
+import { and, count, desc, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "../client";
 import { mailMessages, notifications } from "../schema";
 
@@ -39,7 +39,7 @@ export async function listMailMessages({ limit = 50, to }: { limit?: number; to?
   return db
     .select()
     .from(mailMessages)
-    .where(to ? eq(mailMessages.toAddress, to) : undefined)
+    .where(to ? eq(sql`lower(${mailMessages.toAddress})`, to.toLowerCase()) : undefined)
     .orderBy(desc(mailMessages.createdAt))
     .limit(limit);
 }

@@ -17,6 +17,12 @@ export const ACTIONS = [
   "report.issue",
   "report.download",
   "members.manage",
+  "members.view",
+  "members.invite",
+  "supervisor.sign",
+  "photo.add",
+  "instrument.view",
+  "instrument.edit",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -34,11 +40,32 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "deviation.accept": ["engineer"],
   "report.issue": ["commissioning_agent"],
   "report.download": ALL,
+  // Changing or removing an engineer of record, and anything about oneself, stays with site administrators.
   "members.manage": [],
+  "members.view": ALL,
+  // Invite people, change roles, remove members, designate the TAB supervisor.
+  "members.invite": ["engineer"],
+  // Only the designated supervisor signs; the handler also checks it is them.
+  "supervisor.sign": ["technician"],
+  "photo.add": ["technician"],
+  // The instrument register is the organisation's: these are asked of any project role the user holds.
+  "instrument.view": ALL,
+  "instrument.edit": ["technician", "engineer"],
 };
 
 /** Site-wide administrators set projects up (settings, design, people) and may look at everything, but take no readings and sign nothing. */
-const ADMIN_ACTIONS: ReadonlySet<Action> = new Set(["project.view", "project.edit", "design.view", "design.edit", "report.download", "members.manage"]);
+const ADMIN_ACTIONS: ReadonlySet<Action> = new Set([
+  "project.view",
+  "project.edit",
+  "design.view",
+  "design.edit",
+  "report.download",
+  "members.manage",
+  "members.view",
+  "members.invite",
+  "instrument.view",
+  "instrument.edit",
+]);
 
 export interface Actor {
   isAdmin: boolean;
@@ -47,6 +74,11 @@ export interface Actor {
 export function can(actor: Actor, role: MemberRole | null, action: Action): boolean {
   if (role !== null && POLICY[action].includes(role)) return true;
   return actor.isAdmin && ADMIN_ACTIONS.has(action);
+}
+
+/** Register-wide actions (the instrument register): allowed when any of the user's project roles allows it. */
+export function canInRegister(actor: Actor, roles: readonly MemberRole[], action: Action): boolean {
+  return actor.isAdmin ? ADMIN_ACTIONS.has(action) : roles.some((role) => POLICY[action].includes(role));
 }
 
 export const ROLE_LABELS: Record<MemberRole, string> = {

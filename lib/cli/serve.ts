@@ -6,7 +6,10 @@
  *                     a session secret generated into the data directory if none is set
  *   npm start       → production: AIRTALLY_SESSION_SECRET is required
  *
- * Environment: PORT (3000), AIRTALLY_DATA_DIR (.data), DATABASE_URL (PostgreSQL instead of PGlite).
+ * Environment: PORT (3000), AIRTALLY_DATA_DIR (.data), DATABASE_URL (PostgreSQL instead of PGlite),
+ * S3_* (object storage; without them a local S3-compatible store runs on loopback beside the server,
+ * its files in <data dir>/objects, started and stopped here), SMTP_URL, AIRTALLY_PUBLIC_URL.
+ * Only demo mode creates the demo accounts: production starts with none (`npm run admin:create`).
  */
 import { spawn, spawnSync } from "node:child_process";
 import crypto from "node:crypto";
@@ -14,6 +17,9 @@ import fs from "node:fs";
 import path from "node:path";
 import { acquireDataDirLock, defaultDataDir } from "@/db/client";
 import { MissingSecretError, resolveSessionSecret, SECRET_ENV } from "@/lib/auth/secret";
+import { storageConfigFromEnv } from "@/lib/server/storage";
+import { launcherEnv } from "./launcher-env";
+import { startLocalObjectStore, type LocalObjectStore } from "./local-object-store";
 
 const root = process.cwd();
 const demo = process.argv.includes("--demo");
@@ -81,9 +87,7 @@ async function waitForHealth(child: ReturnType<typeof spawn>): Promise<void> {
 
 async function main() {
   if (!Number.isInteger(port) || port < 1 || port > 65535) fail(`PORT must be a whole number from 1 to 65535; it is "${process.env.PORT}".`);
-  // Sites often have no internet: do not let the framework try to send usage telemetry.
-  const env: NodeJS.ProcessEnv = { NEXT_TELEMETRY_DISABLED: "1", ...process.env, NODE_ENV: "production", PORT: String(port) };
-  if (demo) env.AIRTALLY_DEMO = "1";
+  const env = launcherEnv({ demo, port, env: process.env });
   const dataDir = defaultDataDir();
 
   // The server opens the data directory; refuse now rather than let two processes share it.
@@ -98,6 +102,7 @@ async function main() {
   try {
     // The secret rules read the mode from the environment, as the server will.
     Object.assign(process.env, { NODE_ENV: "production" }, demo ? { AIRTALLY_DEMO: "1" } : {});
+    if (!demo) delete process.env.AIRTALLY_DEMO;
     env[SECRET_ENV] = resolveSessionSecret(dataDir);
   } catch (err) {
     if (err instanceof MissingSecretError) fail(err.message);
@@ -106,14 +111,25 @@ async function main() {
 
   ensureBuild(env);
 
+  let store: LocalObjectStore | undefined;
+  if (!storageConfigFromEnv(env)) {
+    store = await startLocalObjectStore({ dataDir });
+    Object.assign(env, store.env);
+    console.log(`No S3_BUCKET set: uploads and reports go to a local S3-compatible store on ${store.env.S3_ENDPOINT} (files in ${store.directory}).`);
+    if (!demo) console.log("For several app servers, or backups apart from this machine, set S3_ENDPOINT, S3_BUCKET and credentials instead.");
+  }
+
   const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: "inherit", env });
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => child.kill(signal));
-  child.on("exit", (code) => process.exit(code ?? 0));
+  child.on("exit", (code) => {
+    void (store?.stop() ?? Promise.resolve()).finally(() => process.exit(code ?? 0));
+  });
 
   await waitForHealth(child);
   const where = env.DATABASE_URL ? "PostgreSQL (DATABASE_URL)" : `embedded PGlite in ${dataDir}`;
   console.log(`\nAirtally is ready on http://localhost:${port}  (database: ${where})`);
   if (demo) console.log("Demo accounts: tech@, cx@, engineer@, owner@, admin@example.test — password airtally-demo\n");
+  else console.log("No account yet? Create the first site administrator with: npm run admin:create\n");
 }
 
 void main();

@@ -1,8 +1,10 @@
 import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
+import { fileOperations } from "./operations/files";
+import { peopleOperations } from "./operations/people";
 
 /** Every documented operation; each area adds its own list here. */
-export const OPERATIONS: readonly Operation[] = [...coreOperations];
+export const OPERATIONS: readonly Operation[] = [...coreOperations, ...peopleOperations, ...fileOperations];
 
 export function openApiDocument() {
   return buildOpenApiDocument(OPERATIONS, { version: "1" });

@@ -125,3 +125,28 @@ function isMissing(err: unknown): boolean {
   const e = err as { name?: string; $metadata?: { httpStatusCode?: number } };
   return e?.name === "NoSuchKey" || e?.name === "NotFound" || e?.$metadata?.httpStatusCode === 404;
 }
+
+/** Keys under a prefix (at most `max`), for housekeeping and tests. */
+export async function listObjectKeys(prefix: string, max = 1000): Promise<string[]> {
+  const { ListObjectsV2Command } = await import("@aws-sdk/client-s3");
+  const { client, config } = storage();
+  const out = await client.send(new ListObjectsV2Command({ Bucket: config.bucket, Prefix: prefix, MaxKeys: max }));
+  return (out.Contents ?? []).flatMap((o) => (o.Key ? [o.Key] : []));
+}
+
+/**
+ * An HTTP answer that streams a stored object through the app (after the caller checked access):
+ * the stored type, never sniffed by the browser, private to the signed-in user's cache.
+ */
+export function objectResponse(obj: StoredObject, { contentType, fileName, download = false }: { contentType: string; fileName: string; download?: boolean }): Response {
+  const safeName = fileName.replace(/[^\w.\- ]+/g, "_").slice(0, 120) || "file";
+  const headers: Record<string, string> = {
+    "content-type": contentType,
+    "content-disposition": `${download ? "attachment" : "inline"}; filename="${safeName}"; filename*=UTF-8''${encodeURIComponent(fileName.slice(0, 120))}`,
+    "x-content-type-options": "nosniff",
+    "cache-control": "private, max-age=300",
+    "content-security-policy": "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox",
+  };
+  if (obj.contentLength !== undefined) headers["content-length"] = String(obj.contentLength);
+  return new Response(obj.body, { status: 200, headers });
+}
