@@ -56,7 +56,7 @@ export async function readMultipartFile(req: Request, options: MultipartOptions)
     try {
       busboy = Busboy({
         headers: { "content-type": contentType },
-        limits: { files: 1, fileSize: maxFileBytes, fields: fieldNames.length, fieldSize: maxFieldChars * 4, parts: fieldNames.length + 1, fieldNameSize: 100 },
+        limits: { files: 1, fileSize: maxFileBytes, fields: fieldNames.length, fieldSize: maxFieldChars * 4, parts: fieldNames.length + 2, fieldNameSize: 100 },
       });
     } catch {
       resolve({ ok: false, status: 400, message: "The multipart body has no boundary; send it as a browser form would." });
@@ -81,6 +81,7 @@ export async function readMultipartFile(req: Request, options: MultipartOptions)
       file = { bytes: Buffer.alloc(0), fileName: (info.filename ?? "").slice(0, 200) };
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("limit", () => finish(tooLarge));
+      stream.on("error", () => finish({ ok: false, status: 400, message: "The upload was cut off before it finished; nothing was saved. Try again." }));
       stream.on("end", () => {
         fileDone = true;
       });
