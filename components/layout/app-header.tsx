@@ -1,10 +1,11 @@
 import Link from "next/link";
 import type { SessionUser } from "@/db/queries/users";
+import { NotificationBell } from "./notification-bell";
 import { SignOutButton } from "./sign-out-button";
 import { UnitSwitch } from "./unit-switch";
 import { Wordmark } from "./wordmark";
 
-export function AppHeader({ user }: { user: SessionUser }) {
+export function AppHeader({ user, unread }: { user: SessionUser; unread: number }) {
   return (
     <header className="bg-ink text-white">
       <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-3 px-gutter py-2">
@@ -15,6 +16,12 @@ export function AppHeader({ user }: { user: SessionUser }) {
           <Link href="/projects" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
             Projects
           </Link>
+          {user.isAdmin && (
+            <Link href="/admin/outbox" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
+              Outbox
+            </Link>
+          )}
+          <NotificationBell initialUnread={unread} />
         </nav>
         <div className="flex flex-wrap items-center gap-3">
           <UnitSwitch current={user.unitSystem} />

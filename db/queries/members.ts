@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, isNull, sql } from "drizzle-orm";
 import { getDb } from "../client";
 import { invitations, projectMembers, users } from "../schema";
 
@@ -34,7 +34,15 @@ export async function getMember({ projectId, userId }: { projectId: string; user
 export async function listOpenInvitations({ projectId }: { projectId: string }) {
   const db = await getDb();
   return db
-    .select({ id: invitations.id, email: invitations.email, role: invitations.role, createdAt: invitations.createdAt, expiresAt: invitations.expiresAt, invitedByName: users.name })
+    .select({
+      id: invitations.id,
+      email: invitations.email,
+      role: invitations.role,
+      createdAt: invitations.createdAt,
+      expiresAt: invitations.expiresAt,
+      expired: sql<boolean>`${invitations.expiresAt} <= now()`,
+      invitedByName: users.name,
+    })
     .from(invitations)
     .leftJoin(users, eq(users.id, invitations.invitedBy))
     .where(and(eq(invitations.projectId, projectId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))

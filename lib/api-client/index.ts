@@ -14,7 +14,8 @@ export class ApiError extends Error {
   }
 }
 
-async function call<T>(path: string, init?: RequestInit): Promise<T> {
+/** A JSON call to our API; throws ApiError with the server's message and field errors. */
+export async function call<T>(path: string, init?: RequestInit): Promise<T> {
   let res: Response;
   try {
     res = await fetch(path, { ...init, headers: { "content-type": "application/json", ...init?.headers } });

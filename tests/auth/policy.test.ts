@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ACTIONS, can, POLICY } from "@/lib/auth/policy";
+import { ACTIONS, can, canInRegister, POLICY } from "@/lib/auth/policy";
 import { projectNav } from "@/lib/navigation";
 
 const member = { isAdmin: false };
@@ -42,10 +42,36 @@ describe("role policy", () => {
 
   it("shows each role its own work in the project navigation", () => {
     const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
-    expect(labels("technician")).toEqual(["Overview", "Field work", "Reports"]);
-    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports"]);
-    expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports"]);
-    expect(labels("owner")).toEqual(["Overview", "Reports"]);
+    expect(labels("technician")).toEqual(["Overview", "Field work", "Reports", "Members"]);
+    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports", "Members"]);
+    expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
+    expect(labels("owner")).toEqual(["Overview", "Reports", "Members"]);
     expect(labels(null, admin)).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
+  });
+
+  it("lets every member see who is on the project, and the engineer and site administrators manage people", () => {
+    for (const role of ["technician", "commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "members.view")).toBe(true);
+    expect(can(member, "engineer", "members.invite")).toBe(true);
+    for (const role of ["technician", "commissioning_agent", "owner"] as const) expect(can(member, role, "members.invite")).toBe(false);
+    expect(can(admin, null, "members.invite")).toBe(true);
+    // Appointing engineers of record stays with site administrators.
+    expect(can(member, "engineer", "members.manage")).toBe(false);
+  });
+
+  it("lets only technicians attach photos and sign as TAB supervisor; administrators sign nothing", () => {
+    expect(can(member, "technician", "photo.add")).toBe(true);
+    expect(can(member, "engineer", "photo.add")).toBe(false);
+    expect(can(member, "technician", "supervisor.sign")).toBe(true);
+    expect(can(member, "engineer", "supervisor.sign")).toBe(false);
+    expect(can(admin, null, "supervisor.sign")).toBe(false);
+    expect(can(admin, null, "photo.add")).toBe(false);
+  });
+
+  it("decides the organisation's instrument register from any of the user's project roles", () => {
+    expect(canInRegister(member, [], "instrument.view")).toBe(false);
+    expect(canInRegister(member, ["owner"], "instrument.view")).toBe(true);
+    expect(canInRegister(member, ["owner"], "instrument.edit")).toBe(false);
+    expect(canInRegister(member, ["owner", "technician"], "instrument.edit")).toBe(true);
+    expect(canInRegister(admin, [], "instrument.edit")).toBe(true);
   });
 });

@@ -5,6 +5,7 @@ import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { Verdict } from "@/components/ui/status";
 import { formatQuantity } from "@/lib/units";
+import { getLatestReport } from "@/db/queries/reports";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Project overview" };
@@ -15,6 +16,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
   const screen = await loadAirflowScreen(params, "project.view");
   if (!screen.allowed) notFound();
   const { project, units, systems } = screen;
+  const latestReport = await getLatestReport({ projectId: project.id });
 
   const sections = systems.flatMap((s) => s.sections);
   const measured = sections.filter((s) => s.reduction?.ok);
@@ -108,7 +110,16 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
           )}
         </Card>
         <Card title="Latest report">
-          <p className="text-ink-soft">No closeout report has been issued for this project yet.</p>
+          {latestReport ? (
+            <p>
+              Revision {latestReport.revision}, issued <span className="num">{latestReport.issuedAt.toISOString().slice(0, 10)}</span>.{" "}
+              <a className="font-semibold text-accent-strong underline" href={`/api/v1/projects/${project.id}/reports/${latestReport.id}/pdf`}>
+                Download the PDF
+              </a>
+            </p>
+          ) : (
+            <p className="text-ink-soft">No closeout report has been issued for this project yet.</p>
+          )}
         </Card>
       </div>
     </main>

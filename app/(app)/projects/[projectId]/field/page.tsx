@@ -4,6 +4,8 @@ import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
+import { SectionPhotos } from "@/components/uploads/section-photos";
+import { can } from "@/lib/auth/policy";
 import { recommendLayout } from "@/lib/airflow/layout";
 import { ductOf } from "@/lib/server/airflow-view";
 import { formatQuantity } from "@/lib/units";
@@ -15,6 +17,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
   const screen = await loadAirflowScreen(params, "traverse.record");
   if (!screen.allowed) return <NotAllowed what="taking readings" />;
   const { units, systems } = screen;
+  const canAddPhotos = can(screen.user, screen.access.role, "photo.add");
 
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
@@ -57,6 +60,16 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
                       </span>
                     )}
                     {row.reduction && !row.reduction.ok && <span className="text-sm text-caution">{row.reduction.message}</span>}
+                  </div>
+                  <div className="md:col-span-2">
+                    <SectionPhotos
+                      projectId={screen.project.id}
+                      sectionId={row.section.id}
+                      sectionTag={row.section.tag}
+                      currentUserId={screen.user.id}
+                      canAdd={canAddPhotos}
+                      locked={row.latest?.status === "approved"}
+                    />
                   </div>
                 </li>
               );
