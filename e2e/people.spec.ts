@@ -6,6 +6,8 @@ const NEW_PERSON = "maeve.ostrander@example.test";
 const NEW_PASSWORD = "duct-static-412";
 
 test("an invitation appears in the outbox, and its link sets a password once and never again", async ({ page, browser }) => {
+  // Three people in turn, each in their own browser, with an accessibility check on every new screen.
+  test.setTimeout(120_000);
   // The engineer invites a commissioning agent from the Members page.
   const signIn = new SignInPage(page);
   await signIn.goto();
