@@ -48,7 +48,7 @@ export function NotificationList({ initial }: { initial: { notifications: Notifi
                 <p className="flex flex-wrap items-center gap-2 text-sm text-ink-muted">
                   {!n.readAt && <span className="rounded-full border border-accent bg-paper-raised px-2 text-xs font-bold text-accent-strong">Unread</span>}
                   <span>{KIND_WORDS[n.kind] ?? n.kind}</span>
-                  <span>· {new Date(n.createdAt).toLocaleString()}</span>
+                  <span className="num">· {n.createdAt.slice(0, 16).replace("T", " ")} UTC</span>
                 </p>
                 <p className={n.readAt ? "" : "font-semibold"}>
                   {n.link ? (

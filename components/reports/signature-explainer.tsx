@@ -36,7 +36,7 @@ export function OfflineCheck() {
         <a className="font-semibold text-accent-strong underline" href="/api/v1/reports/public-key">deployment&apos;s public key</a> and the report&apos;s signature file
         (from the report&apos;s verification page, or from whoever gave you the report), OpenSSL 3 checks it on any computer:
       </p>
-      <pre className="overflow-x-auto rounded-card bg-ink p-3 text-sm text-white">
+      <pre className="overflow-x-auto whitespace-pre-wrap rounded-card bg-ink p-3 text-sm text-white">
         <code>openssl pkeyutl -verify -pubin -inkey airtally-public.pem -rawin -in report.pdf -sigfile report.sig</code>
       </pre>
       <p className="text-sm text-ink-soft">It prints “Signature Verified Successfully” for the issued file, and fails for any other.</p>

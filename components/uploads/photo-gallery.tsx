@@ -16,9 +16,9 @@ interface Props {
 export function PhotoGallery({ photos, canRemove, onRemove, removing, label }: Props) {
   if (photos.length === 0) return null;
   return (
-    <ul aria-label={label} className="flex flex-wrap gap-3">
+    <ul aria-label={label} className="flex flex-wrap items-start gap-3">
       {photos.map((p) => (
-        <li key={p.id} className="grid w-32 gap-1 text-xs text-ink-soft">
+        <li key={p.id} className="grid w-32 content-start gap-1 text-xs text-ink-soft">
           <a href={p.url} target="_blank" rel="noopener" className="block overflow-hidden rounded-card border border-line bg-paper-sunk">
             {/* Served by our own route behind the session: the framework's image optimizer would fetch it without the cookie. */}
             {/* eslint-disable-next-line @next/next/no-img-element */}
@@ -26,7 +26,7 @@ export function PhotoGallery({ photos, canRemove, onRemove, removing, label }: P
           </a>
           {p.caption && <span className="line-clamp-2 text-ink">{p.caption}</span>}
           <span>
-            {p.takenByName ?? "Unknown"} · {new Date(p.createdAt).toLocaleDateString()}
+            {p.takenByName ?? "Unknown"} · <span className="num">{p.createdAt.slice(0, 10)}</span>
           </span>
           {canRemove?.(p) && onRemove && (
             <button type="button" className="min-h-touch rounded-card border border-line-strong px-2 font-semibold text-fault hover:bg-fault-soft" disabled={removing === p.id} onClick={() => onRemove(p)}>

@@ -55,7 +55,7 @@ export function UploadButton<T>({ url, label, accept, capture, fields = {}, hint
 
   const busy = progress !== null;
   return (
-    <div className="grid gap-1">
+    <div className="grid justify-items-start gap-1">
       <label
         htmlFor={inputId}
         className={`inline-flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-accent bg-paper-raised px-5 text-base font-semibold text-accent-strong hover:bg-accent-soft focus-within:outline focus-within:outline-3 focus-within:outline-offset-2 focus-within:outline-accent ${busy ? "pointer-events-none opacity-60" : ""}`}

@@ -38,10 +38,9 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
             <table className="w-full text-left">
               <thead className="border-b-2 border-line text-sm text-ink-muted">
                 <tr>
-                  <th className="py-2 pr-3">Name</th>
-                  <th className="py-2 pr-3">E-mail</th>
+                  <th className="py-2 pr-3">Name and e-mail</th>
                   <th className="py-2 pr-3">Role</th>
-                  <th className="py-2 pr-3">Member since</th>
+                  <th className="py-2 pr-3">Since</th>
                   {mayInvite && <th className="py-2">Change</th>}
                 </tr>
               </thead>
@@ -50,13 +49,13 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
                   const changeable = mayInvite && (mayManage || (m.userId !== user.id && m.role !== "engineer"));
                   return (
                     <tr key={m.userId} className="border-b border-line align-top">
-                      <td className="py-2 pr-3 font-semibold">
-                        {m.name}
-                        {supervisor.designation?.userId === m.userId && <span className="ml-2 rounded-full border border-accent px-2 text-xs text-accent-strong">TAB supervisor</span>}
+                      <td className="py-2 pr-3">
+                        <span className="font-semibold">{m.name}</span>
+                        {supervisor.designation?.userId === m.userId && <span className="ml-2 whitespace-nowrap rounded-full border border-accent px-2 text-xs text-accent-strong">TAB supervisor</span>}
+                        <span className="block text-sm text-ink-soft [overflow-wrap:anywhere]">{m.email}</span>
                       </td>
-                      <td className="py-2 pr-3 break-all">{m.email}</td>
                       <td className="py-2 pr-3">{m.role === "engineer" ? "Engineer of record" : ROLE_LABELS[m.role]}</td>
-                      <td className="num py-2 pr-3">{m.since.toISOString().slice(0, 10)}</td>
+                      <td className="num whitespace-nowrap py-2 pr-3">{m.since.toISOString().slice(0, 10)}</td>
                       {mayInvite && (
                         <td className="py-2">
                           {changeable ? (
