@@ -16,7 +16,7 @@ export interface ReceivedFile {
 
 export type MultipartResult =
   | { ok: true; file: ReceivedFile | null; fields: Record<string, string> }
-  | { ok: false; status: 400 | 413 | 415; message: string; field?: string };
+  | { ok: false; status: 400 | 408 | 413 | 415; message: string; field?: string };
 
 /** Room for the multipart boundaries, part headers and the short fields around the file. */
 const ENVELOPE_BYTES = 64 * 1024;
@@ -29,10 +29,12 @@ export interface MultipartOptions {
   /** Text fields accepted besides the file; others are ignored. */
   fieldNames?: readonly string[];
   maxFieldChars?: number;
+  /** How long the whole body may take to arrive (default 5 minutes: 10 MB over a weak site connection). */
+  timeoutMs?: number;
 }
 
 export async function readMultipartFile(req: Request, options: MultipartOptions): Promise<MultipartResult> {
-  const { maxFileBytes, limitWords, fileField = "file", fieldNames = [], maxFieldChars = 2000 } = options;
+  const { maxFileBytes, limitWords, fileField = "file", fieldNames = [], maxFieldChars = 2000, timeoutMs = 300_000 } = options;
   const tooLarge = { ok: false as const, status: 413 as const, message: `The file is larger than ${limitWords}; nothing was saved. Choose a smaller file (or a lower camera resolution).`, field: fileField };
   const contentType = req.headers.get("content-type") ?? "";
   if (!/^multipart\/form-data;/i.test(contentType)) {
@@ -45,9 +47,11 @@ export async function readMultipartFile(req: Request, options: MultipartOptions)
   const source = Readable.fromWeb(req.body as unknown as NodeWebStream<Uint8Array>);
   return new Promise<MultipartResult>((resolve) => {
     let settled = false;
+    const timer = setTimeout(() => finish({ ok: false, status: 408, message: "The upload took too long to arrive and was stopped; nothing was saved. Try again with a better connection." }), timeoutMs);
     const finish = (result: MultipartResult) => {
       if (settled) return;
       settled = true;
+      clearTimeout(timer);
       source.unpipe();
       if (!result.ok) source.destroy();
       resolve(result);

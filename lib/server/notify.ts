@@ -71,7 +71,7 @@ export async function notify(input: NotifyInput): Promise<Recipient[]> {
       const { text, html } = renderMail({ ...input.mail, greeting: input.mail.greeting });
       await queueMail(
         db,
-        people.map((p) => ({ to: p.email, toName: p.name, subject: input.subject, text: text.replace("{name}", p.name), html: html.replace("{name}", escapeName(p.name)), kind: input.kind, projectId: input.projectId })),
+        people.map((p) => ({ to: p.email, toName: p.name, subject: input.subject, text: text.replace("{name}", () => p.name), html: html.replace("{name}", () => escapeName(p.name)), kind: input.kind, projectId: input.projectId })),
       );
     }
     return people;

@@ -56,3 +56,17 @@ describe("verification codes", () => {
     expect(normaliseVerificationCode("x".repeat(500))).toBeNull();
   });
 });
+
+describe("multipart uploads", () => {
+  it("stop waiting for a body that never finishes", async () => {
+    const { readMultipartFile } = await import("@/lib/server/multipart");
+    const stalled = new ReadableStream<Uint8Array>({
+      start(c) {
+        c.enqueue(new TextEncoder().encode('--b\r\nContent-Disposition: form-data; name="file"; filename="a.jpg"\r\n\r\nabc'));
+      },
+    });
+    const req = new Request("http://localhost/x", { method: "POST", body: stalled, headers: { "content-type": "multipart/form-data; boundary=b" }, duplex: "half" } as RequestInit);
+    const result = await readMultipartFile(req, { maxFileBytes: 1000, limitWords: "1 kB", timeoutMs: 200 });
+    expect(result).toMatchObject({ ok: false, status: 408 });
+  });
+});
