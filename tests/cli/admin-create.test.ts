@@ -23,7 +23,7 @@ describe("npm run admin:create", () => {
     const r = run(["--email", "first@example.test", "--name", "First Admin"], "short\n");
     expect(r.status).toBe(1);
     expect(r.stderr).toMatch(/at least 10 characters/);
-  });
+  }, 60_000);
 
   it("creates a site administrator from a password on standard input, and refuses the same e-mail twice", async () => {
     const r = run(["--email", "First@Example.test", "--name", "First Admin"], "a long enough secret\n");
@@ -43,5 +43,6 @@ describe("npm run admin:create", () => {
     } finally {
       await handle.close();
     }
-  });
+    // Three fresh processes each open the data directory (initdb and migrations on the first): slow on a busy machine.
+  }, 180_000);
 });
