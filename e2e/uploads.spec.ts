@@ -124,7 +124,7 @@ test("the verification page says a downloaded report is genuine and refuses a mo
   await signIn.signIn("owner@example.test");
   await page.getByRole("link", { name: /Wrenfield Library/ }).click();
   await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: "Reports" }).click();
-  await expect(page.getByText("Revision 1")).toBeVisible();
+  await expect(page.getByText("Revision 1", { exact: true })).toBeVisible();
   await expectNoAxeViolations(page);
   const download = page.waitForEvent("download");
   await page.getByRole("link", { name: "Download the PDF of revision 1" }).click();
