@@ -37,6 +37,13 @@ export default defineConfig({
       args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
     },
   },
+  // Specs that change shared state run after the others, one stage at a time: the matrix saves
+  // preferences as every role; the session spec ends sessions and changes a password.
+  projects: [
+    { name: "journeys", testIgnore: /(authorization-matrix|sessions)\.spec\.ts/ },
+    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["journeys"] },
+    { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
+  ],
   webServer: {
     // A fresh data directory with the demo and one issued report, then the production build (rebuilt when
     // sources changed) through the launcher, which also runs the local object store.

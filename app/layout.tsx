@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import "./globals.css";
 
 // Barlow ships with the app: no font is fetched from the network.
@@ -28,7 +29,10 @@ export const viewport: Viewport = {
   themeColor: "#111a22",
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page renders per request: proxy.ts gives each response a fresh CSP nonce, which a
+  // prerendered page could not carry.
+  await connection();
   return (
     <html lang="en" className={barlow.variable}>
       <body>{children}</body>

@@ -1,5 +1,6 @@
 "use client";
 
+import "@/lib/validation/zod-browser";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useState } from "react";
 

@@ -1,12 +1,12 @@
-import fs from "node:fs";
 import path from "node:path";
 import { PGlite } from "@electric-sql/pglite";
 import { drizzle as drizzlePglite, type PgliteDatabase } from "drizzle-orm/pglite";
 import { drizzle as drizzlePg } from "drizzle-orm/node-postgres";
 import { Pool } from "pg";
 import * as schema from "./schema";
-import { migrateDatabase } from "./migrate";
+import { migrateDatabase, migratePostgres } from "./migrate";
 import { seedDemo } from "./seed/index";
+import { acquireDataDirLock } from "./lock";
 
 /**
  * The one place that opens the database. PGlite on a data directory by default
@@ -34,49 +34,19 @@ export function defaultDataDir(): string {
   return process.env.AIRTALLY_DATA_DIR || path.join(process.cwd(), ".data");
 }
 
-const LOCK_FILE = "airtally.lock";
-
-function processAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (err) {
-    return (err as NodeJS.ErrnoException).code === "EPERM";
-  }
-}
-
-/**
- * PGlite has no lock of its own: two processes on one data directory silently lose writes.
- * The process that opens the directory writes its PID here; any other live process is refused.
- */
-export function acquireDataDirLock(dataDir: string): () => void {
-  fs.mkdirSync(dataDir, { recursive: true });
-  const lockPath = path.join(dataDir, LOCK_FILE);
-  if (fs.existsSync(lockPath)) {
-    const holder = Number.parseInt(fs.readFileSync(lockPath, "utf8"), 10);
-    if (Number.isInteger(holder) && holder !== process.pid && processAlive(holder)) {
-      throw new Error(
-        `The data directory ${dataDir} is in use by process ${holder} (a running Airtally server). ` +
-          `Stop that process first, or point AIRTALLY_DATA_DIR at another directory.`,
-      );
-    }
-  }
-  fs.writeFileSync(lockPath, String(process.pid), { mode: 0o600 });
-  return () => {
-    try {
-      if (fs.readFileSync(lockPath, "utf8") === String(process.pid)) fs.unlinkSync(lockPath);
-    } catch {
-      // already gone
-    }
-  };
-}
+export { acquireDataDirLock } from "./lock";
 
 /** Opens a database and applies every pending migration. */
 export async function openDatabase(options: OpenOptions = {}): Promise<DatabaseHandle> {
   if (options.url) {
     const pool = new Pool({ connectionString: options.url, max: 10 });
     const db = drizzlePg({ client: pool, schema }) as unknown as Database;
-    await migrateDatabase(db, "postgres");
+    try {
+      await migratePostgres(pool);
+    } catch (err) {
+      await pool.end();
+      throw err;
+    }
     return { db, kind: "postgres", close: () => pool.end() };
   }
   const dataDir = options.dataDir ?? defaultDataDir();
@@ -85,7 +55,7 @@ export async function openDatabase(options: OpenOptions = {}): Promise<DatabaseH
   try {
     const client = new PGlite(dataDir);
     const db = drizzlePglite({ client, schema });
-    await migrateDatabase(db, "pglite");
+    await migrateDatabase(db);
     return {
       db,
       kind: "pglite",
@@ -125,4 +95,13 @@ export function getDatabaseHandle(): Promise<DatabaseHandle> {
 
 export async function getDb(): Promise<Database> {
   return (await getDatabaseHandle()).db;
+}
+
+/** Closes the process-wide database if it was opened (clean shutdown). */
+export async function closeProcessDatabase(): Promise<void> {
+  const pending = globalForDb.airtallyDb;
+  if (!pending) return;
+  globalForDb.airtallyDb = undefined;
+  const handle = await pending.catch(() => null);
+  await handle?.close();
 }

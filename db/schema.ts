@@ -78,6 +78,11 @@ export const users = pgTable(
     passwordHash: text("password_hash").notNull(),
     isAdmin: boolean("is_admin").notNull().default(false),
     unitSystem: unitSystem("unit_system"),
+    /**
+     * Sealed into every session cookie at sign-in and compared on each request (read with the user, no
+     * extra query): raising it ends every session of the user at once (sign out everywhere, new password).
+     */
+    sessionVersion: integer("session_version").notNull().default(1),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("users_email_lower_idx").on(sql`lower(${t.email})`)],
@@ -244,22 +249,35 @@ export const instruments = pgTable(
     serial: text("serial").notNull(),
     calibratedOn: date("calibrated_on", { mode: "string" }),
     calibrationDueOn: date("calibration_due_on", { mode: "string" }),
+    /**
+     * The calibration laboratory's certificate number, as printed on the certificate. The certificate
+     * file itself (an upload) will live in its own table pointing at this row; nothing stores it yet.
+     */
+    certificateNumber: text("certificate_number").notNull().default(""),
     rangeMin: doublePrecision("range_min"),
     rangeMax: doublePrecision("range_max"),
     /** Maker's accuracy as ± % of reading plus ± a floor in the kind's unit (a specification limit, not a standard uncertainty). */
     accuracyPct: doublePrecision("accuracy_pct"),
     accuracyFloor: doublePrecision("accuracy_floor"),
+    /** Thermo-hygrometers: relative-humidity accuracy, ± % RH (the temperature accuracy is accuracyFloor, °C). */
+    humidityAccuracyPct: doublePrecision("humidity_accuracy_pct"),
     /** Pitot tubes: the calibration coefficient (1.0 for a standard pitot-static tube) and the head's outside diameter. */
     probeCoefficient: doublePrecision("probe_coefficient"),
     probeHeadDiameterMm: doublePrecision("probe_head_diameter_mm"),
     /** Capture hoods: the maker's correction factor for the hood top in use, when one applies. */
     hoodCorrectionFactor: doublePrecision("hood_correction_factor"),
     notes: text("notes").notNull().default(""),
+    /** An instrument that was used is retired, never deleted, so old readings keep naming it. */
     retiredAt: timestamp("retired_at", { withTimezone: true }),
     createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [uniqueIndex("instruments_kind_serial_idx").on(t.kind, sql`lower(${t.serial})`)],
+  (t) => [
+    uniqueIndex("instruments_kind_serial_idx").on(t.kind, sql`lower(${t.serial})`),
+    check("instruments_range_order", sql`${t.rangeMin} is null or ${t.rangeMax} is null or ${t.rangeMin} < ${t.rangeMax}`),
+    check("instruments_due_after_calibration", sql`${t.calibratedOn} is null or ${t.calibrationDueOn} is null or ${t.calibrationDueOn} > ${t.calibratedOn}`),
+  ],
 );
 
 /**
@@ -435,20 +453,47 @@ export const reviews = pgTable(
   (t) => [index("reviews_traverse_idx").on(t.traverseId)],
 );
 
-/** Append-only record of who changed what. */
+/**
+ * Append-only record of who did what, and of requests that were refused. A database trigger refuses
+ * UPDATE, DELETE and TRUNCATE. The user and project ids carry no foreign key on purpose: deleting a
+ * user or a project must neither delete nor rewrite its history, and the actor's e-mail is copied
+ * as it was at the time.
+ */
 export const auditLog = pgTable(
   "audit_log",
   {
     id: bigserial("id", { mode: "number" }).primaryKey(),
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
-    userId: uuid("user_id").references(() => users.id, { onDelete: "set null" }),
-    projectId: uuid("project_id").references(() => projects.id, { onDelete: "cascade" }),
+    userId: uuid("user_id"),
+    actorEmail: text("actor_email"),
+    projectId: uuid("project_id"),
     action: text("action").notNull(),
     entityType: text("entity_type").notNull(),
     entityId: text("entity_id"),
     detail: jsonb("detail").$type<Record<string, unknown>>().notNull().default({}),
   },
   (t) => [index("audit_log_project_idx").on(t.projectId, t.at), index("audit_log_action_idx").on(t.action, t.at)],
+);
+
+/** pending: being checked; cleared: a failure forgiven by a later success from the same address. */
+export const signInOutcome = pgEnum("sign_in_outcome", ["pending", "failed", "succeeded", "throttled", "cleared"]);
+export type SignInOutcome = (typeof signInOutcome.enumValues)[number];
+
+/**
+ * Every sign-in attempt, recorded before the password is checked so that parallel guesses count
+ * against each other. Keyed by the e-mail as typed (lower case, whether or not an account has it)
+ * and by the client address; rows older than a day are pruned.
+ */
+export const signInAttempts = pgTable(
+  "sign_in_attempts",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+    email: text("email").notNull(),
+    client: text("client").notNull(),
+    outcome: signInOutcome("outcome").notNull().default("pending"),
+  },
+  (t) => [index("sign_in_attempts_email_idx").on(t.email, t.at), index("sign_in_attempts_client_idx").on(t.client, t.at), index("sign_in_attempts_at_idx").on(t.at)],
 );
 
 export type User = typeof users.$inferSelect;

@@ -4,7 +4,9 @@ import { SignInPage } from "./pages/sign-in-page";
 
 // WCAG 2.1 AA rules, colour contrast among them: screens are read in bright plant rooms.
 async function expectNoViolations(page: Page) {
-  // After a client-side navigation the new title lands a moment after the content: wait for it.
+  // After a client-side navigation (and the refresh that follows sign-in) the title is streamed in a
+  // moment after the content, replacing the old one: let the page settle, then check it is there.
+  await page.waitForLoadState("networkidle");
   await expect(page).toHaveTitle(/\S/);
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
   expect(results.violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
@@ -33,6 +35,8 @@ for (const { email, tab } of SCREENS) {
     await expectNoViolations(page);
     await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: tab }).click();
     await expect(page.getByRole("link", { name: tab })).toHaveAttribute("aria-current", "page");
+    // The new page's title replaces the old one a moment after its content: wait for it, not just any title.
+    await expect(page).toHaveTitle(new RegExp(`^${tab}`));
     await expectNoViolations(page);
   });
 }

@@ -8,11 +8,11 @@ const CLINIC = "Marlow Quay Clinic — fit-out";
 const ROLES = [
   { email: "tech@example.test", role: "Technician", tabs: ["Overview", "Field work", "Reports", "Members"] },
   { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports", "Members"] },
-  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Design vs measured", "Reports", "Members"] },
+  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members"] },
   { email: "owner@example.test", role: "Owner", tabs: ["Overview", "Reports", "Members"] },
-  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Design vs measured", "Reports", "Members"] },
+  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members"] },
 ];
-const ALL_TABS = ["Overview", "Field work", "Review", "Design vs measured", "Reports", "Members"];
+const ALL_TABS = ["Overview", "Set-up", "Field work", "Review", "Design vs measured", "Reports", "Members"];
 
 for (const account of ROLES) {
   test(`${account.role} signs in and sees their own navigation`, async ({ page }) => {
@@ -107,9 +107,17 @@ test("a user sees only the projects they belong to", async ({ playwright, baseUR
   await expect(page.getByText("Marlow Quay")).toHaveCount(0);
 });
 
-test("the health check names the embedded database", async ({ request }) => {
-  const res = await request.get("/api/health");
-  expect(await res.json()).toEqual({ status: "ok", database: "pglite" });
+test("the health check tells anyone the service is up, and only a signed-in administrator which database it uses", async ({ request, playwright, baseURL }) => {
+  expect(await (await request.get("/api/health")).json()).toEqual({ status: "ok" });
+  for (const [email, body] of [
+    ["engineer@example.test", { status: "ok" }],
+    ["admin@example.test", { status: "ok", database: "pglite" }],
+  ] as const) {
+    const api = await playwright.request.newContext({ baseURL });
+    await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } });
+    expect(await (await api.get("/api/health")).json()).toEqual(body);
+    await api.dispose();
+  }
 });
 
 test("each user picks the unit system every screen shows", async ({ page }) => {

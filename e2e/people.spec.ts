@@ -47,7 +47,7 @@ test("an invitation appears in the outbox, and its link sets a password once and
   await invitee.getByLabel(/Choose a password/).fill("short");
   await invitee.getByLabel("The same password again").fill("short");
   await invitee.getByRole("button", { name: "Create my account" }).click();
-  await expect(invitee.getByText("Use at least 10 characters.")).toBeVisible();
+  await expect(invitee.getByText("Use at least 12 characters.")).toBeVisible();
   await invitee.getByLabel(/Choose a password/).fill(NEW_PASSWORD);
   await invitee.getByLabel("The same password again").fill(NEW_PASSWORD);
   await invitee.getByRole("button", { name: "Create my account" }).click();

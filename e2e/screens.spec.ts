@@ -29,7 +29,8 @@ test("the commissioning agent's review queue lists the submitted traverses with 
   const trunk = page.getByRole("region").filter({ hasText: "AHU-1 / S1 ·" });
   await expect(trunk).toContainText("Standard flow");
   await expect(trunk).toContainText("Good plane");
-  await expect(trunk).toContainText("of flow");
+  // The expanded uncertainty, always with its coverage factor.
+  await expect(trunk).toContainText(/± \d+\.\d % \(k = 2, about 95 %\) on actual, standard and mass flow/);
 });
 
 test("the engineer sees design against measured, continuity by mass and balancing aids", async ({ page }) => {

@@ -10,6 +10,7 @@ export interface NavItem {
 
 const PROJECT_NAV: { path: string; label: string; action: Action }[] = [
   { path: "", label: "Overview", action: "project.view" },
+  { path: "/setup", label: "Set-up", action: "design.edit" },
   { path: "/field", label: "Field work", action: "traverse.record" },
   { path: "/review", label: "Review", action: "traverse.review" },
   { path: "/systems", label: "Design vs measured", action: "design.edit" },

@@ -2,6 +2,7 @@ import { AppHeader } from "@/components/layout/app-header";
 import { Providers } from "@/components/providers";
 import { countUnreadNotifications } from "@/db/queries/notifications";
 import { requireUser } from "@/lib/auth/guards";
+import { OfflineProvider } from "@/lib/offline/offline-context";
 
 export const dynamic = "force-dynamic";
 
@@ -10,8 +11,10 @@ export default async function SignedInLayout({ children }: { children: React.Rea
   const unread = await countUnreadNotifications({ userId: user.id });
   return (
     <Providers>
-      <AppHeader user={user} unread={unread} />
-      {children}
+      <OfflineProvider owner={user.id}>
+        <AppHeader user={user} unread={unread} />
+        {children}
+      </OfflineProvider>
     </Providers>
   );
 }

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { PendingChanges } from "@/components/offline/sync-status";
 import type { SessionUser } from "@/db/queries/users";
 import { NotificationBell } from "./notification-bell";
 import { SignOutButton } from "./sign-out-button";
@@ -16,6 +17,9 @@ export function AppHeader({ user, unread }: { user: SessionUser; unread: number 
           <Link href="/projects" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
             Projects
           </Link>
+          <Link href="/instruments" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
+            Instruments
+          </Link>
           {user.isAdmin && (
             <Link href="/admin/outbox" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
               Outbox
@@ -23,6 +27,7 @@ export function AppHeader({ user, unread }: { user: SessionUser; unread: number 
           )}
           <NotificationBell initialUnread={unread} />
         </nav>
+        <PendingChanges />
         <div className="flex flex-wrap items-center gap-3">
           <UnitSwitch current={user.unitSystem} />
           <span className="text-sm text-paper-sunk">

@@ -6,14 +6,24 @@ import { airSystems, ductSections, readings, terminals, traverses, users } from 
 /** The design side of a project: systems, their duct trees and terminals, in stable order. */
 export async function getProjectDesign({ projectId }: { projectId: string }) {
   const db = await getDb();
-  const systems = await db.select().from(airSystems).where(eq(airSystems.projectId, projectId)).orderBy(asc(airSystems.tag));
-  const systemIds = systems.map((s) => s.id);
-  if (systemIds.length === 0) return { systems, sections: [], terminals: [] };
-  const sections = await db.select().from(ductSections).where(inArray(ductSections.systemId, systemIds)).orderBy(asc(ductSections.tag));
-  const sectionIds = sections.map((s) => s.id);
-  const terminalRows =
-    sectionIds.length === 0 ? [] : await db.select().from(terminals).where(inArray(terminals.sectionId, sectionIds)).orderBy(asc(terminals.tag));
-  return { systems, sections, terminals: terminalRows };
+  // Three independent queries keyed by the project, issued together: no round trip waits on another.
+  const [systems, sectionRows, terminalRows] = await Promise.all([
+    db.select().from(airSystems).where(eq(airSystems.projectId, projectId)).orderBy(asc(airSystems.tag)),
+    db
+      .select({ section: ductSections })
+      .from(ductSections)
+      .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
+      .where(eq(airSystems.projectId, projectId))
+      .orderBy(asc(ductSections.tag)),
+    db
+      .select({ terminal: terminals })
+      .from(terminals)
+      .innerJoin(ductSections, eq(ductSections.id, terminals.sectionId))
+      .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
+      .where(eq(airSystems.projectId, projectId))
+      .orderBy(asc(terminals.tag)),
+  ]);
+  return { systems, sections: sectionRows.map((r) => r.section), terminals: terminalRows.map((r) => r.terminal) };
 }
 
 /** Every traverse in the project with its readings and who took it, newest first. */

@@ -1,21 +1,40 @@
 import "server-only";
-import { and, count, eq, gt, sql } from "drizzle-orm";
+import { sql } from "drizzle-orm";
 import { getDb } from "../client";
-import { auditLog } from "../schema";
+import { auditLog, users } from "../schema";
 
-export async function recordAudit(entry: typeof auditLog.$inferInsert): Promise<void> {
+export type AuditEntry = Omit<typeof auditLog.$inferInsert, "id" | "at">;
+
+/**
+ * Appends one entry to the audit log (the table refuses updates and deletes). The actor's e-mail is
+ * kept as it is now: pass `actorEmail`, or give `userId` and it is copied from the user row within
+ * the same INSERT (no extra round trip).
+ */
+export async function recordAudit(entry: AuditEntry): Promise<void> {
   const db = await getDb();
-  await db.insert(auditLog).values(entry);
+  const actorEmail =
+    entry.actorEmail ?? (entry.userId ? sql`(select ${users.email} from ${users} where ${users.id} = ${entry.userId})` : null);
+  await db.insert(auditLog).values({ ...entry, actorEmail });
 }
 
-export const FAILED_SIGN_IN = "auth.sign_in_failed";
-
-/** Failed sign-ins for an e-mail (any case) since a moment; kept in the database so every app server sees them. */
-export async function countFailedSignIns({ email, since }: { email: string; since: Date }): Promise<number> {
-  const db = await getDb();
-  const [row] = await db
-    .select({ n: count() })
-    .from(auditLog)
-    .where(and(eq(auditLog.action, FAILED_SIGN_IN), gt(auditLog.at, since), eq(sql`${auditLog.detail}->>'email'`, email.trim().toLowerCase())));
-  return row?.n ?? 0;
+/** Auditing a refusal must never turn the refusal into a 500: failures are logged and swallowed. */
+export async function recordAuditQuietly(entry: AuditEntry): Promise<void> {
+  try {
+    await recordAudit(entry);
+  } catch (err) {
+    console.error("[audit] could not record", entry.action, err);
+  }
 }
+
+export const AUDIT = {
+  signIn: "auth.sign_in",
+  signInFailed: "auth.sign_in_failed",
+  signOut: "auth.sign_out",
+  signOutEverywhere: "auth.sign_out_everywhere",
+  passwordChanged: "auth.password_changed",
+  preferencesChanged: "user.preferences_changed",
+  requestDenied: "request.denied",
+} as const;
+
+/** @deprecated kept for callers of the first version; use AUDIT.signInFailed. */
+export const FAILED_SIGN_IN = AUDIT.signInFailed;

@@ -13,13 +13,6 @@ export async function listProjectMembers({ projectId }: { projectId: string }) {
     .orderBy(asc(users.name));
 }
 
-/** Every role the user holds, across their projects (for register-wide rules). */
-export async function listUserRoles({ userId }: { userId: string }) {
-  const db = await getDb();
-  const rows = await db.selectDistinct({ role: projectMembers.role }).from(projectMembers).where(eq(projectMembers.userId, userId));
-  return rows.map((r) => r.role);
-}
-
 export async function getMember({ projectId, userId }: { projectId: string; userId: string }) {
   const db = await getDb();
   const [row] = await db

@@ -1,7 +1,8 @@
 import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { getDb } from "../client";
-import { airSystems, ductSections, projectMembers, projects, traverses, type MemberRole, type Project, type TraverseStatus } from "../schema";
+import { airSystems, ductSections, projectMembers, projects, traverses, users, type MemberRole, type Project, type TraverseStatus } from "../schema";
+import { getUserById, type SessionUser } from "./users";
 
 export interface ProjectAccess {
   project: Project;
@@ -18,6 +19,48 @@ export async function getProjectAccess({ userId, projectId }: { userId: string; 
     .leftJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId)))
     .where(eq(projects.id, projectId));
   return row ?? null;
+}
+
+/**
+ * The user (as getUserById) and their access to one project, in one query: the request path of
+ * every project API route. Null when the user does not exist; `access` null when the project does
+ * not exist (or the id is not a UUID).
+ */
+export async function getUserWithProjectAccess({ userId, projectId }: { userId: string; projectId: string }): Promise<{ user: SessionUser; access: ProjectAccess | null } | null> {
+  if (!isUuid(projectId)) {
+    const user = await getUserById({ id: userId });
+    return user ? { user, access: null } : null;
+  }
+  const db = await getDb();
+  const [row] = await db
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      isAdmin: users.isAdmin,
+      unitSystem: users.unitSystem,
+      sessionVersion: users.sessionVersion,
+      project: projects,
+      role: projectMembers.role,
+    })
+    .from(users)
+    .leftJoin(projects, eq(projects.id, projectId))
+    .leftJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, users.id)))
+    .where(eq(users.id, userId));
+  if (!row) return null;
+  const { project, role, ...user } = row;
+  return { user, access: project ? { project, role } : null };
+}
+
+/** The projects a user is a member of, with the role: one indexed lookup (GET /api/auth/me). */
+export async function listMembershipsForUser({ userId }: { userId: string }): Promise<{ projectId: string; role: MemberRole }[]> {
+  const db = await getDb();
+  return db
+    .select({ projectId: projectMembers.projectId, role: projectMembers.role })
+    .from(projectMembers)
+    .innerJoin(projects, eq(projects.id, projectMembers.projectId))
+    .where(eq(projectMembers.userId, userId))
+    .orderBy(asc(projects.name));
 }
 
 export interface ProjectSummary {

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq } from "drizzle-orm";
 import { getDb } from "../client";
-import { airSystems, ductSections, instrumentCertificates, instruments, photos, traverses, users } from "../schema";
+import { airSystems, ductSections, instrumentCertificates, photos, traverses, users } from "../schema";
 
 /** A duct section of this project (null for another project's section or an unknown id). */
 export async function getProjectSection({ projectId, sectionId }: { projectId: string; sectionId: string }) {
@@ -53,12 +53,6 @@ export async function listSectionPhotos({ projectId, sectionId }: { projectId: s
 export async function getPhoto({ projectId, sectionId, photoId }: { projectId: string; sectionId: string; photoId: string }) {
   const db = await getDb();
   const [row] = await db.select().from(photos).where(and(eq(photos.id, photoId), eq(photos.projectId, projectId), eq(photos.sectionId, sectionId)));
-  return row ?? null;
-}
-
-export async function getInstrument({ instrumentId }: { instrumentId: string }) {
-  const db = await getDb();
-  const [row] = await db.select({ id: instruments.id, kind: instruments.kind, serial: instruments.serial }).from(instruments).where(eq(instruments.id, instrumentId));
   return row ?? null;
 }
 

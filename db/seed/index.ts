@@ -2,7 +2,8 @@ import { eq } from "drizzle-orm";
 import { hashPassword } from "@/lib/auth/password";
 import type { Database } from "../client";
 import * as s from "../schema";
-import { seedClinic } from "./clinic";
+import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./clinic";
+import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
 
 /**
@@ -50,9 +51,12 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
         name: "Marlow Quay Clinic — fit-out",
         siteName: "Marlow Quay Clinic",
         address: "2 Quayside Row, Marlow Quay",
-        altitudeM: 35,
+        altitudeM: CLINIC_ALTITUDE_M,
         unitSystem: "IP",
-        standardDensityKgM3: 1.2014,
+        standardDensityKgM3: CLINIC_STANDARD_DENSITY_KG_M3,
+        // US specifications often allow outlets less below design than above (invented for the demo).
+        outletToleranceMinusPct: 5,
+        outletTolerancePlusPct: 10,
       })
       .returning();
 
@@ -67,6 +71,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
 
     await seedLibrary(tx, library!.id, userId("tech@example.test"), userId("cx@example.test"));
     await seedClinic(tx, clinic!.id);
+    await seedFieldKit(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
 
     await tx.insert(s.auditLog).values({
       userId: userId("admin@example.test"),

@@ -5,6 +5,7 @@
  */
 import { EngineInputError } from "./errors";
 import {
+  ASSUMED_STATIC_UNCERTAINTY_PA,
   MOIST_VOLUME_FACTOR,
   MOLAR_MASS_RATIO_WATER_AIR,
   R_DRY_AIR,
@@ -19,15 +20,20 @@ import {
  * Conditions read at the plane. Validated ranges (the zod schema enforces them):
  * dry-bulb −40…120 °C; wet-bulb −40 °C … dry-bulb; RH 0…100 %; barometric 50 000…110 000 Pa;
  * altitude −500…5 000 m; duct static −10 000…10 000 Pa. Exactly one of RH / wet-bulb;
- * a measured barometric pressure wins over altitude when both are given.
+ * a measured barometric pressure wins over altitude when both are given, and the altitude then checks it
+ * (a sea-level-corrected weather-report pressure at altitude is warned about).
  */
 export interface AirConditions {
   dryBulbC: number;
   /** Measured station (not sea-level-corrected) pressure; if absent, altitudeM is used. */
   barometricPa?: number;
+  /** Site altitude, m: the pressure when no barometer was read, and the check of one that was. */
   altitudeM?: number;
-  /** Duct static pressure, gauge (negative on return/exhaust). */
-  staticPa: number;
+  /**
+   * Duct static pressure, gauge (negative on return/exhaust). Undefined when it was not measured: 0 Pa
+   * (ambient) is then assumed, the state says so (staticAssumed) and the density uncertainty widens.
+   */
+  staticPa?: number;
   relativeHumidityPct?: number;
   wetBulbC?: number;
 }
@@ -37,6 +43,10 @@ export interface AirState {
   barometricPa: number;
   /** Where barometricPa came from. */
   barometricSource: "measured" | "altitude";
+  /** Duct static pressure used, gauge Pa (0 when it was not measured). */
+  staticPa: number;
+  /** True when no static pressure was given and 0 Pa was assumed. */
+  staticAssumed: boolean;
   absolutePressurePa: number;
   /** kg water per kg dry air. */
   humidityRatio: number;
@@ -146,7 +156,7 @@ export function airConditionErrors(conditions: AirConditions, fieldPrefix = "air
   }
   if (Object.keys(fields).length > 0) return fields;
 
-  const absolutePa = barometric(conditions) + conditions.staticPa;
+  const absolutePa = barometric(conditions) + (conditions.staticPa ?? 0);
   if (rh !== undefined) {
     const pwPa = (rh / 100) * saturationPressurePa(dryBulbC);
     if (pwPa >= absolutePa) {
@@ -179,7 +189,9 @@ export function airState(conditions: AirConditions, options: { fieldPrefix?: str
   if (Object.keys(errors).length > 0) {
     throw new AirStateError(`Air conditions are not possible: check ${Object.keys(errors).join(", ")}.`, errors);
   }
-  const { dryBulbC, staticPa } = conditions;
+  const { dryBulbC } = conditions;
+  const staticAssumed = conditions.staticPa === undefined;
+  const staticPa = conditions.staticPa ?? 0;
   const warnings: string[] = [];
   const barometricPa = barometric(conditions);
   const absolutePressurePa = barometricPa + staticPa;
@@ -187,10 +199,15 @@ export function airState(conditions: AirConditions, options: { fieldPrefix?: str
   if (conditions.barometricPa !== undefined && conditions.altitudeM !== undefined) {
     const standardPa = barometricPressureFromAltitudePa(conditions.altitudeM);
     if (Math.abs(barometricPa - standardPa) > BAROMETRIC_VS_ALTITUDE_WARN_PA) {
+      // If the reading is wrong and the site is near standard, pitot flows scale with ρ^(−½) ∝ p^(−½).
+      const flowEffectPct = (Math.sqrt(standardPa / barometricPa) - 1) * 100;
       warnings.push(
-        `Barometric ${fmt(barometricPa)} Pa differs from the standard atmosphere at ${fmt(conditions.altitudeM)} m (${fmt(standardPa)} Pa) by more than ${fmt(BAROMETRIC_VS_ALTITUDE_WARN_PA)} Pa; weather reports give sea-level-corrected pressure, use the station reading. The measured value was used.`,
+        `Barometric ${fmt(barometricPa)} Pa differs from the standard atmosphere at ${fmt(conditions.altitudeM)} m (${fmt(standardPa)} Pa) by more than ${fmt(BAROMETRIC_VS_ALTITUDE_WARN_PA)} Pa: was it a sea-level-corrected weather report? Use the station reading (a barometer on site); if this one is wrong, pitot flows come out ${fmt(Math.abs(flowEffectPct), 1)} % too ${flowEffectPct < 0 ? "low" : "high"}. The measured value was used.`,
       );
     }
+  }
+  if (staticAssumed) {
+    warnings.push(`Duct static pressure was not given: 0 Pa (ambient) was assumed, and the density uncertainty allows for ±${fmt(ASSUMED_STATIC_UNCERTAINTY_PA)} Pa. Measure it at the plane for a better density.`);
   }
   if (Math.abs(staticPa) > STATIC_WARN_PA) {
     warnings.push(
@@ -231,6 +248,8 @@ export function airState(conditions: AirConditions, options: { fieldPrefix?: str
     dryBulbC,
     barometricPa,
     barometricSource: conditions.barometricPa !== undefined ? "measured" : "altitude",
+    staticPa,
+    staticAssumed,
     absolutePressurePa,
     humidityRatio,
     vapourPressurePa,

@@ -62,8 +62,17 @@ export interface BalancingOptions {
   tolerance?: Tolerance;
   /** Ratios within this % of the index ratio are left alone (default 10, common practice: "ratios within 10 % of each other"). */
   matchPct?: number;
-  /** Terminals below this ratio are not used as the index but flagged to investigate (default 0.5, our choice). */
+  /**
+   * Terminals below this absolute ratio are not used as the index but flagged to investigate. When
+   * omitted the floor is relative to the branch: see investigateBelowMedianFraction.
+   */
   minIndexRatio?: number;
+  /**
+   * Terminals whose ratio is below this fraction of their branch's median ratio are flagged to investigate
+   * (closed damper, blockage?) rather than taken as the index (default 0.5, our choice). Relative, so a
+   * uniformly low branch (a fan at half speed) still gets its lowest terminal as the index.
+   */
+  investigateBelowMedianFraction?: number;
 }
 
 /** Bad balancing input; fields map dotted snake_case paths to a message. */
@@ -97,12 +106,23 @@ function checkTerminals(terminals: TerminalReading[]): void {
   if (keys.length > 0) throw new BalancingError(`Terminal readings are not valid: check ${keys.slice(0, 3).join(", ")}.`, fields);
 }
 
-function planBranch(branch: string, terminals: TerminalReading[], tolerance: Tolerance, matchPct: number, minIndexRatio: number): BranchPlan {
+/** Median of sorted numbers (empty → NaN). */
+function medianOfSorted(sorted: readonly number[]): number {
+  const n = sorted.length;
+  if (n === 0) return Number.NaN;
+  const mid = Math.floor(n / 2);
+  return n % 2 === 1 ? (sorted[mid] as number) : ((sorted[mid - 1] as number) + (sorted[mid] as number)) / 2;
+}
+
+function planBranch(branch: string, terminals: TerminalReading[], tolerance: Tolerance, matchPct: number, floor: { absolute?: number; medianFraction: number }): BranchPlan {
   const rows = terminals.map((t) => ({ t, ratio: t.measuredM3S / t.designM3S })).sort((a, b) => a.ratio - b.ratio);
-  const index = rows.find((r) => r.ratio >= minIndexRatio);
+  const minIndexRatio = floor.absolute ?? floor.medianFraction * medianOfSorted(rows.map((r) => r.ratio));
+  // A terminal with no flow at all is never an index, whatever the floor.
+  const tooLow = (ratio: number) => !(ratio > 0) || ratio < minIndexRatio;
+  const index = rows.find((r) => !tooLow(r.ratio));
   const steps: TerminalStep[] = rows.map(({ t, ratio }) => {
     let role: TerminalRole;
-    if (ratio < minIndexRatio) role = "investigate";
+    if (tooLow(ratio)) role = "investigate";
     else if (t === index?.t) role = "index";
     else if (index && ratio <= index.ratio * (1 + matchPct / 100)) role = "leave";
     else role = "throttle";
@@ -130,7 +150,8 @@ function planBranch(branch: string, terminals: TerminalReading[], tolerance: Tol
 /**
  * A proportional-balancing plan (common practice): in each branch the terminal with the lowest
  * measured/design ratio is the index and stays open; the others are throttled to the index's ratio
- * (those already within matchPct of it are left). Branch dampers follow the same rule between branches,
+ * (those already within matchPct of it are left); a terminal far below the rest of its branch (under half
+ * its median ratio by default) is sent to investigation instead of becoming the index. Branch dampers follow the same rule between branches,
  * lowest branch ratio first; finally the fan speed brings all ratios towards 1.0.
  * Throws BalancingError for duplicate ids, non-positive design or negative measured flows.
  */
@@ -138,7 +159,7 @@ export function proportionalBalance(terminals: TerminalReading[], options: Balan
   checkTerminals(terminals);
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
   const matchPct = options.matchPct ?? 10;
-  const minIndexRatio = options.minIndexRatio ?? 0.5;
+  const floor = { absolute: options.minIndexRatio, medianFraction: options.investigateBelowMedianFraction ?? 0.5 };
 
   const byBranch = new Map<string, TerminalReading[]>();
   for (const t of terminals) {
@@ -147,7 +168,7 @@ export function proportionalBalance(terminals: TerminalReading[], options: Balan
     if (list) list.push(t);
     else byBranch.set(key, [t]);
   }
-  const branches = [...byBranch].map(([b, list]) => planBranch(b, list, tolerance, matchPct, minIndexRatio)).sort((a, b) => a.ratio - b.ratio);
+  const branches = [...byBranch].map(([b, list]) => planBranch(b, list, tolerance, matchPct, floor)).sort((a, b) => a.ratio - b.ratio);
   if (branches[0]) branches[0].role = "index";
 
   const totalDesign = terminals.reduce((a, t) => a + t.designM3S, 0);

@@ -4,11 +4,21 @@
  */
 import type { ZodError } from "zod";
 import { fail, issuePath, ok, type Result } from "@/lib/validation/result";
-import { layoutInputSchema, networkInputSchema, traverseInputSchema, type LayoutInputJson, type TraverseInputJson } from "@/lib/validation/calc";
-import { EngineInputError } from "./errors";
+import {
+  calcInputSizeProblems,
+  describeValue,
+  layoutInputSchema,
+  networkInputSchema,
+  traverseInputSchema,
+  type LayoutInputJson,
+  type TraverseInputJson,
+} from "@/lib/validation/calc";
+import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS, MORE_FIELDS_KEY } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
 import { checkContinuity } from "./network";
-import { reduceTraverse, type ReadingsKind } from "./traverse";
+import { reduceTraverse, type ReadingsKind, type TraversePoint } from "./traverse";
+import { STANDARD_DENSITY_KG_M3 } from "./constants";
+import { formatExpandedUncertainty, type FlowUncertainty, type UncertaintyTerms } from "./uncertainty";
 
 export const CALC_COMMANDS = ["layout", "traverse", "network"] as const;
 export type CalcCommand = (typeof CALC_COMMANDS)[number];
@@ -20,9 +30,42 @@ const mm01 = (m: number) => Math.round(m * MM_PER_M * 10) / 10 + 0;
 const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
 const pct = (fraction: number) => finiteOrNull(fraction * 100);
 
-/** Field errors keyed by dotted path; an unknown key is reported at its own path. */
-function fieldErrors(error: ZodError): Record<string, string> {
+/** The value at a dotted path of the input, for messages. */
+function valueAt(input: unknown, path: readonly PropertyKey[]): unknown {
+  let at: unknown = input;
+  for (const key of path) {
+    if (typeof at !== "object" || at === null) return undefined;
+    at = (at as Record<PropertyKey, unknown>)[key];
+  }
+  return at;
+}
+
+const EXPECTED_WORDS: Record<string, string> = {
+  object: "an object",
+  array: "a list",
+  number: "a number",
+  string: "a text",
+  boolean: "true or false",
+  null: "null",
+};
+
+/**
+ * The library's own messages ("Invalid input: expected object, received array") are not for users. Every
+ * schema sets its own; this is the safety net for any it missed: the same fact in our words.
+ */
+const LIBRARY_PHRASING = /^Invalid|expected .+, received|^Too (big|small)|^Unrecognized/;
+
+function userMessage(issue: ZodError["issues"][number], input: unknown): string {
+  if (!LIBRARY_PHRASING.test(issue.message)) return issue.message;
+  const got = describeValue(valueAt(input, issue.path));
+  const expected = issue.code === "invalid_type" ? EXPECTED_WORDS[String(issue.expected)] : undefined;
+  return expected ? `must be ${expected}; got ${got}` : `is not a value Airtally accepts here; got ${got}`;
+}
+
+/** Field errors keyed by dotted path; an unknown key is reported at its own path. At most MAX_FIELD_ERRORS, then a count. */
+function fieldErrors(error: ZodError, input: unknown): { fields: Record<string, string>; total: number } {
   const fields: Record<string, string> = {};
+  const seen = new Set<string>();
   for (const issue of error.issues) {
     const paths =
       issue.code === "unrecognized_keys"
@@ -33,17 +76,26 @@ function fieldErrors(error: ZodError): Record<string, string> {
                 ? "is not a field of this duct shape: round takes diameter_mm; rectangular takes width_mm and height_mm"
                 : "is not a field Airtally expects here; check the spelling",
           }))
-        : [{ path: issuePath(issue.path), message: issue.message }];
-    for (const { path, message } of paths) if (!(path in fields)) fields[path] = message;
+        : [{ path: issuePath(issue.path), message: null }];
+    for (const { path, message } of paths) {
+      if (seen.has(path)) continue;
+      seen.add(path);
+      if (seen.size <= MAX_FIELD_ERRORS) fields[path] = message ?? userMessage(issue, input);
+    }
   }
-  return fields;
+  return { fields: capFieldErrors(fields, seen.size), total: seen.size };
 }
 
-function invalid(command: CalcCommand, error: ZodError): Result<never> {
-  const fields = fieldErrors(error);
-  const names = Object.keys(fields);
-  const shown = names.slice(0, 3).join(", ") + (names.length > 3 ? ` and ${names.length - 3} more` : "");
+function refuse(command: CalcCommand, fields: Record<string, string>, total?: number): Result<never> {
+  const names = Object.keys(fields).filter((k) => k !== MORE_FIELDS_KEY);
+  const all = Math.max(total ?? names.length, names.length);
+  const shown = names.slice(0, 3).join(", ") + (all > 3 ? ` and ${(all - Math.min(3, names.length)).toLocaleString("en-US")} more` : "");
   return fail(`The ${command} input is not valid: check ${shown}.`, fields);
+}
+
+function invalid(command: CalcCommand, error: ZodError, input: unknown): Result<never> {
+  const { fields, total } = fieldErrors(error, input);
+  return refuse(command, fields, total);
 }
 
 function toDuct(duct: LayoutInputJson["duct"]): Duct {
@@ -54,6 +106,7 @@ function toDuct(duct: LayoutInputJson["duct"]): Duct {
 
 function layoutRequest(input: LayoutInputJson | TraverseInputJson): LayoutRequest {
   return {
+    probeHeadDiameterM: toM(input.probe?.head_diameter_mm),
     duct: toDuct(input.duct),
     method: input.method,
     lines: input.lines,
@@ -72,10 +125,22 @@ function layoutJson(layout: Layout) {
     points_per_line: layout.pointsPerLine,
     recommended: { lines: layout.recommended.lines, points_per_line: layout.recommended.pointsPerLine },
     wall_minimum_mm: mm01(layout.wallMinimumM),
+    probe_head_diameter_mm: mm01(layout.probeHeadDiameterM),
+    probe_reach_mm: mm01(layout.probeReachM),
+    beyond_probe_reach_count: layout.beyondReachCount,
+    reachable_counts: layout.reachableCounts && { lines: layout.reachableCounts.lines, points_per_line: layout.reachableCounts.pointsPerLine },
     lines: layout.lines.map((line) => ({
       ...(line.angleDeg !== null ? { angle_deg: line.angleDeg } : {}),
       ...(line.lineXM !== null ? { x_mm: mm01(line.lineXM) } : {}),
-      points: line.points.map((p) => ({ x_mm: mm01(p.xM), y_mm: mm01(p.yM), depth_mm: mm01(p.depthM), ...(p.moved ? { moved_from_wall: true } : {}) })),
+      points: line.points.map((p) => ({
+        x_mm: mm01(p.xM),
+        y_mm: mm01(p.yM),
+        depth_mm: mm01(p.depthM),
+        position_mm: mm01(p.positionM),
+        read_position_mm: mm01(p.readPositionM),
+        ...(p.moved ? { moved_from_wall: true } : {}),
+        ...(p.beyondProbeReach ? { beyond_probe_reach: true } : {}),
+      })),
     })),
     reason: layout.reason,
     warnings: layout.warnings,
@@ -84,13 +149,37 @@ function layoutJson(layout: Layout) {
 
 function runLayout(input: unknown): Result<unknown> {
   const parsed = layoutInputSchema.safeParse(input);
-  if (!parsed.success) return invalid("layout", parsed.error);
+  if (!parsed.success) return invalid("layout", parsed.error, input);
   return ok(layoutJson(buildLayout(layoutRequest(parsed.data))));
 }
 
+/** One traverse point as JSON; flags appear only when set (assigned, not spread: this runs per point). */
+function pointJson(p: TraversePoint) {
+  const out: Record<string, unknown> = {
+    line: p.line,
+    point: p.point,
+    x_mm: mm01(p.xM),
+    y_mm: mm01(p.yM),
+    depth_mm: mm01(p.depthM),
+    position_mm: mm01(p.positionM),
+    read_position_mm: mm01(p.readPositionM),
+  };
+  if (p.beyondProbeReach) out.beyond_probe_reach = true;
+  out.reading = p.reading;
+  out.velocity_pressure_pa = p.velocityPressurePa;
+  out.velocity_m_s = p.velocityMS;
+  if (p.filledFrom !== null) {
+    out.filled_from = p.filledFrom;
+    out.filled_velocity_m_s = p.filledVelocityMS;
+  }
+  return out;
+}
+
 function runTraverse(input: unknown): Result<unknown> {
+  const sizes = calcInputSizeProblems("traverse", input);
+  if (sizes) return refuse("traverse", sizes);
   const parsed = traverseInputSchema.safeParse(input);
-  if (!parsed.success) return invalid("traverse", parsed.error);
+  if (!parsed.success) return invalid("traverse", parsed.error, input);
   const d = parsed.data;
   const ins = d.instrument;
   const r = reduceTraverse({
@@ -101,12 +190,13 @@ function runTraverse(input: unknown): Result<unknown> {
       dryBulbC: d.air.dry_bulb_c,
       barometricPa: d.air.barometric_pa,
       altitudeM: d.air.altitude_m,
-      staticPa: d.air.static_pa,
+      staticPa: d.air.static_pa ?? undefined,
       relativeHumidityPct: d.air.relative_humidity_pct,
       wetBulbC: d.air.wet_bulb_c,
     },
     probeCoefficient: d.probe?.coefficient,
     standardDensityKgM3: d.standard_density_kg_m3,
+    instrumentStandardDensityKgM3: ins?.standard_density_kg_m3,
     readings: d.readings,
     readingsKind: d.readings_kind as ReadingsKind | undefined,
     instrument: ins && {
@@ -121,14 +211,25 @@ function runTraverse(input: unknown): Result<unknown> {
       repeatabilityPct: ins.repeatability_pct,
     },
   });
-  const t = r.uncertainty.terms;
+  const terms = (t: UncertaintyTerms) => ({
+    dimension: pct(t.dimension),
+    reading: pct(t.reading),
+    density: pct(t.density),
+    layout: pct(t.layout),
+    random: pct(t.random),
+    sampling: pct(t.sampling),
+  });
+  const flowUncertainty = (f: FlowUncertainty) => ({ expanded_pct: pct(f.expanded), combined_standard_pct: pct(f.combined), terms_pct: terms(f.terms) });
+  const u = r.uncertainty;
   return ok({
     method: r.layout.method,
     rule: r.layout.rule,
     readings_kind: r.readingsKind,
     integration_rule: r.integrationRule,
+    filled_points: r.filled.length,
     density_kg_m3: r.densityKgM3,
     standard_density_kg_m3: r.standardDensityKgM3,
+    ...(r.instrumentStandardDensityKgM3 !== null ? { instrument_standard_density_kg_m3: r.instrumentStandardDensityKgM3 } : {}),
     mean_velocity_m_s: r.meanVelocityMS,
     area_m2: r.areaM2,
     hydraulic_diameter_mm: r.hydraulicDiameterM * MM_PER_M,
@@ -141,22 +242,17 @@ function runTraverse(input: unknown): Result<unknown> {
       dry_bulb_c: r.air.dryBulbC,
       barometric_pa: r.air.barometricPa,
       barometric_source: r.air.barometricSource,
+      ...(d.air.altitude_m !== undefined ? { altitude_m: d.air.altitude_m } : {}),
+      static_pa: r.air.staticPa,
+      static_assumed: r.air.staticAssumed,
       absolute_pressure_pa: r.air.absolutePressurePa,
       humidity_ratio: r.air.humidityRatio,
       vapour_pressure_pa: r.air.vapourPressurePa,
       relative_humidity_pct: r.air.relativeHumidityPct,
       viscosity_pa_s: r.air.viscosityPaS,
     },
-    points: r.points.map((p) => ({
-      line: p.line,
-      point: p.point,
-      x_mm: mm01(p.xM),
-      y_mm: mm01(p.yM),
-      depth_mm: mm01(p.depthM),
-      reading: p.reading,
-      velocity_pressure_pa: p.velocityPressurePa,
-      velocity_m_s: p.velocityMS,
-    })),
+    probe: { coefficient: d.probe?.coefficient ?? 1, head_diameter_mm: mm01(r.layout.probeHeadDiameterM), reach_mm: mm01(r.layout.probeReachM) },
+    points: r.points.map(pointJson),
     quality: {
       share_above_tenth_of_max: r.quality.shareAboveTenthOfMax,
       max_over_mean: finiteOrNull(r.quality.maxOverMean),
@@ -166,16 +262,32 @@ function runTraverse(input: unknown): Result<unknown> {
       verdict: r.quality.verdict,
       reasons: r.quality.reasons,
     },
-    uncertainty_pct: pct(r.uncertainty.combined),
-    uncertainty_terms_pct: { dimension: pct(t.dimension), reading: pct(t.reading), density: pct(t.density), layout: pct(t.layout), random: pct(t.random) },
+    // Kept from the first contract: the expanded uncertainty (k = 2) of the standard flow, and its terms as standard uncertainties.
+    uncertainty_pct: pct(u.expanded),
+    uncertainty_terms_pct: terms(u.terms),
+    uncertainty: {
+      expanded_pct: pct(u.expanded),
+      coverage_factor: u.coverageFactor,
+      coverage: "k = 2, about 95 %",
+      shown: formatExpandedUncertainty(u.expanded),
+      combined_standard_pct: pct(u.combined),
+      terms_pct: terms(u.terms),
+      actual: flowUncertainty(u.actual),
+      standard: flowUncertainty(u.standard),
+      mass: flowUncertainty(u.mass),
+      sampling: { unevenness: finiteOrNull(u.sampling.unevenness), straight_run_factor: u.sampling.factor, points: u.sampling.pointCount },
+    },
     layout_reason: r.layout.reason,
+    beyond_probe_reach_count: r.layout.beyondReachCount,
     warnings: r.warnings,
   });
 }
 
 function runNetwork(input: unknown): Result<unknown> {
+  const sizes = calcInputSizeProblems("network", input);
+  if (sizes) return refuse("network", sizes);
   const parsed = networkInputSchema.safeParse(input);
-  if (!parsed.success) return invalid("network", parsed.error);
+  if (!parsed.success) return invalid("network", parsed.error, input);
   const nodes = parsed.data.nodes.map((n) => ({
     id: n.id,
     parent: n.parent,
@@ -183,8 +295,9 @@ function runNetwork(input: unknown): Result<unknown> {
     flowM3S: n.flow_m3_s,
     densityKgM3: n.density_kg_m3,
   }));
-  const { junctions } = checkContinuity(nodes, { tolerancePct: parsed.data.tolerance_pct });
+  const { junctions } = checkContinuity(nodes, { tolerancePct: parsed.data.tolerance_pct, standardDensityKgM3: parsed.data.standard_density_kg_m3 });
   return ok({
+    standard_density_kg_m3: parsed.data.standard_density_kg_m3 ?? STANDARD_DENSITY_KG_M3,
     junctions: junctions.map((j) => ({
       id: j.id,
       parent_mass_flow_kg_s: j.parentMassFlowKgS,
@@ -215,7 +328,7 @@ export function runCalcCommand(command: string, input: unknown): Result<unknown>
     return RUNNERS[command as CalcCommand](input);
   } catch (error) {
     // Impossible combinations only the engine can see (e.g. cycles, vapour pressure above total pressure).
-    if (error instanceof EngineInputError) return fail(error.message, error.fields);
+    if (error instanceof EngineInputError) return fail(error.message, capFieldErrors(error.fields));
     throw error;
   }
 }

@@ -34,3 +34,6 @@ export const SUTHERLAND_S_K = 110.4;
 
 /** ISO 3966: the pitot-static method is limited to Mach numbers up to 0.25. */
 export const MACH_LIMIT_ISO_3966 = 0.25;
+
+/** Range ± of an unmeasured duct static pressure about the 0 Pa then assumed (our choice: most supply and return ducts sit within ±1 kPa). */
+export const ASSUMED_STATIC_UNCERTAINTY_PA = 1000;

@@ -22,6 +22,11 @@ export interface LayoutRequest {
   straightDownstreamM?: number;
   /** Added to every insertion depth: port nipple, insulation and liner thickness. */
   portOffsetM?: number;
+  /**
+   * Outside diameter of the probe head (the sensing tip), m. Its centre cannot come nearer a wall than
+   * half of it; points nearer are flagged and read at that distance. Default DEFAULT_PROBE_HEAD_DIAMETER_M.
+   */
+  probeHeadDiameterM?: number;
 }
 
 export interface LayoutPoint {
@@ -31,12 +36,25 @@ export interface LayoutPoint {
   xM: number;
   /** Round: from the duct centre. Rectangular: from the top wall (the port face). */
   yM: number;
-  /** Distance from the port wall along the line, where the reading is actually taken. */
+  /**
+   * Distance from the port wall along the line: the method's published position (for equal-area layouts
+   * after the US EPA Method 1 move off the wall, see `moved`).
+   */
   positionM: number;
-  /** Probe insertion depth: positionM plus the port offset. */
+  /** Probe insertion depth for the reading: readPositionM plus the port offset. */
   depthM: number;
-  /** True when the tabulated position was too close to a wall and was moved out. */
+  /** True when an equal-area position was too close to a wall and was moved out (US EPA Method 1). */
   moved: boolean;
+  /**
+   * Where the probe actually reads along the line: positionM, or the nearest position the probe head can
+   * reach (half its diameter from the wall) when positionM is closer to a wall than that.
+   */
+  readPositionM: number;
+  /** Coordinates of the read position, in the same frame as xM and yM. */
+  readXM: number;
+  readYM: number;
+  /** True when the published position lies closer to a wall than the probe head can reach. */
+  beyondProbeReach: boolean;
 }
 
 export interface LayoutLine {
@@ -56,8 +74,19 @@ export interface Layout {
   lineCount: number;
   pointsPerLine: number;
   recommended: { lines: number; pointsPerLine: number };
-  /** Minimum distance of a reading from any wall (US EPA Method 1 practice). */
+  /**
+   * Equal-area layouts: points nearer a wall than this were moved out to it (US EPA Method 1, its own rule
+   * for its equal-area method). 0 for log-linear and log-Tchebycheff layouts, which keep their published
+   * positions (their wall points are placed by the log law on purpose).
+   */
   wallMinimumM: number;
+  /** Probe head diameter used to judge reach, m, and the nearest a reading can be to a wall (half of it). */
+  probeHeadDiameterM: number;
+  probeReachM: number;
+  /** Points whose published position the probe head cannot reach (read at probeReachM instead). */
+  beyondReachCount: number;
+  /** When some points are beyond reach: the nearest counts of the same method whose points are all reachable, or null if none. */
+  reachableCounts: { lines: number; pointsPerLine: number } | null;
   reason: string;
   warnings: string[];
 }
@@ -82,7 +111,13 @@ export const LOG_TCHEBYCHEFF_COUNTS = [5, 6, 7] as const;
 export const MAX_ROUND_LINES = 6;
 export const MAX_EQUAL_AREA_POINTS = 100;
 
-/** US EPA Method 1 (40 CFR 60 App. A-1, §11.3.2): points nearer the wall than this are moved out. */
+/**
+ * Outside diameter of a standard pitot-static tube head, 8 mm (5/16 in; common practice). Its centre can
+ * come no nearer a wall than half of that.
+ */
+export const DEFAULT_PROBE_HEAD_DIAMETER_M = 0.008;
+
+/** US EPA Method 1 (40 CFR 60 App. A-1, §11.3.2): equal-area points nearer the wall than this are moved out. */
 const EPA_WALL_MIN_SMALL_M = 0.013;
 const EPA_WALL_MIN_LARGE_M = 0.025;
 const EPA_LARGE_DUCT_M = 0.61;
@@ -154,11 +189,16 @@ function logTchebycheffCount(sideM: number): number {
 
 interface Recommendation { lines: number; pointsPerLine: number; reasons: string[]; warnings: string[] }
 
-function judgeStraightRun(req: LayoutRequest): { short: boolean; reasons: string[]; warnings: string[] } {
+
+/** Straight duct at the plane: not given, enough, short (under 7.5 D / 2 D) or unsuitable (under 2 D / 0.5 D). */
+export type StraightRunClass = "unknown" | "good" | "short" | "unsuitable";
+
+function judgeStraightRun(req: Pick<LayoutRequest, "duct" | "straightUpstreamM" | "straightDownstreamM">): { short: boolean; unsuitable: boolean; reasons: string[]; warnings: string[] } {
   const d = equivalentDiameterM(req.duct);
   const reasons: string[] = [];
   const warnings: string[] = [];
   let short = false;
+  let unsuitable = false;
   const runs = [
     ["upstream", req.straightUpstreamM, GOOD_UPSTREAM_D, MIN_UPSTREAM_D],
     ["downstream", req.straightDownstreamM, GOOD_DOWNSTREAM_D, MIN_DOWNSTREAM_D],
@@ -169,6 +209,7 @@ function judgeStraightRun(req: LayoutRequest): { short: boolean; reasons: string
     const shown = diameters.toFixed(1);
     if (diameters < min) {
       short = true;
+      unsuitable = true;
       warnings.push(`Only ${shown} diameters of straight duct ${side} (under ${min} D): the plane is unsuitable for a traverse; move it if at all possible.`);
     } else if (diameters < good) {
       short = true;
@@ -176,7 +217,14 @@ function judgeStraightRun(req: LayoutRequest): { short: boolean; reasons: string
     }
     if (diameters < good) reasons.push(`${shown} D straight ${side} is short, so more points`);
   }
-  return { short, reasons, warnings };
+  return { short, unsuitable, reasons, warnings };
+}
+
+/** How the straight run given in the request judges the plane (see StraightRunClass). */
+export function straightRunClass(req: Pick<LayoutRequest, "duct" | "straightUpstreamM" | "straightDownstreamM">): StraightRunClass {
+  if (req.straightUpstreamM === undefined && req.straightDownstreamM === undefined) return "unknown";
+  const run = judgeStraightRun(req);
+  return run.unsuitable ? "unsuitable" : run.short ? "short" : "good";
 }
 
 function recommend(req: LayoutRequest): Recommendation {
@@ -239,6 +287,39 @@ function clampToWalls(posM: number, spanM: number, minM: number): { value: numbe
   return { value, moved: Math.abs(value - posM) > 1e-12 };
 }
 
+/** Fractions of the span along each line (and, rectangular, across the width) for a method and counts. */
+function fractionsFor(duct: Duct, method: LayoutMethod, lineCount: number, n: number): { across: readonly number[]; down: readonly number[] } {
+  if (duct.shape === "round") return { across: [], down: method === "log-linear" ? (LOG_LINEAR_ROUND[n] ?? []) : equalAreaRoundFractions(n) };
+  return {
+    across: method === "log-linear" ? (LOG_TCHEBYCHEFF_RECT[lineCount] ?? []) : equalAreaRectFractions(lineCount),
+    down: method === "log-linear" ? (LOG_TCHEBYCHEFF_RECT[n] ?? []) : equalAreaRectFractions(n),
+  };
+}
+
+/** Whether every point of a fraction set is at least `reachM` from both walls of `spanM`, after any EPA move. */
+function allReachable(fractions: readonly number[], spanM: number, wallMinimumM: number, reachM: number): boolean {
+  return fractions.every((f) => {
+    const pos = clampToWalls(f * spanM, spanM, wallMinimumM).value;
+    return Math.min(pos, spanM - pos) >= reachM - 1e-12;
+  });
+}
+
+/** The counts of the same method nearest to the given ones whose points the probe can all reach, or null. */
+function reachableCounts(duct: Duct, method: LayoutMethod, lineCount: number, n: number, wallMinimumM: number, reachM: number): { lines: number; pointsPerLine: number } | null {
+  const candidates = (given: number, options: readonly number[]) => [...options].sort((a, b) => Math.abs(a - given) - Math.abs(b - given) || a - b);
+  if (duct.shape === "round") {
+    const options = method === "log-linear" ? LOG_LINEAR_ROUND_COUNTS : Array.from({ length: MAX_EQUAL_AREA_POINTS / 2 }, (_, i) => 2 * (i + 1));
+    for (const c of candidates(n, options)) if (allReachable(fractionsFor(duct, method, lineCount, c).down, duct.diameterM, wallMinimumM, reachM)) return { lines: lineCount, pointsPerLine: c };
+    return null;
+  }
+  const options = method === "log-linear" ? LOG_TCHEBYCHEFF_COUNTS : Array.from({ length: MAX_EQUAL_AREA_POINTS - 1 }, (_, i) => i + 2);
+  const pick = (given: number, spanM: number, of: "across" | "down") =>
+    candidates(given, options).find((c) => allReachable(of === "across" ? fractionsFor(duct, method, c, 2).across : fractionsFor(duct, method, 2, c).down, spanM, wallMinimumM, reachM));
+  const lines = pick(lineCount, duct.widthM, "across");
+  const points = pick(n, duct.heightM, "down");
+  return lines !== undefined && points !== undefined ? { lines, pointsPerLine: points } : null;
+}
+
 /** Recommended line and point counts for a duct and method, with the reasons and straight-run warnings. */
 export function recommendLayout(req: LayoutRequest): { lines: number; pointsPerLine: number; reason: string; warnings: string[] } {
   const r = recommend(req);
@@ -264,39 +345,94 @@ export function buildLayout(req: LayoutRequest): Layout {
   if (lineCount < rec.lines) warnings.push(`${lineCount} ${lineWord} is fewer than the ${rec.lines} recommended for this duct.`);
   if (n < rec.pointsPerLine) warnings.push(`${n} points per line is fewer than the ${rec.pointsPerLine} recommended for this duct.`);
 
+  const headM = req.probeHeadDiameterM ?? DEFAULT_PROBE_HEAD_DIAMETER_M;
+  const reachM = headM / 2;
+  const { across, down } = fractionsFor(duct, method, lineCount, n);
+  // The US EPA wall minimum belongs to its equal-area method only; the log rules keep their published positions.
+  const relocateM = method === "equal-area" ? wallMinimumM : 0;
+  /** A position along a span, where it is read, and whether the head can reach it (one object per call: this runs per point). */
+  const place = (f: number, spanM: number) => {
+    const raw = f * spanM;
+    const lo = Math.min(relocateM, spanM / 2);
+    const value = Math.min(Math.max(raw, lo), spanM - lo);
+    const reach = Math.min(reachM, spanM / 2);
+    const read = Math.min(Math.max(value, reach), spanM - reach);
+    return { value, moved: Math.abs(value - raw) > 1e-12, read, beyond: Math.abs(read - value) > 1e-12 };
+  };
+
   const lines: LayoutLine[] = [];
   if (duct.shape === "round") {
-    const fractions = method === "log-linear" ? (LOG_LINEAR_ROUND[n] ?? []) : equalAreaRoundFractions(n);
     const radiusM = duct.diameterM / 2;
     for (let k = 0; k < lineCount; k++) {
       const angleDeg = 90 + (k * 180) / lineCount;
       const cos = Math.cos((angleDeg * Math.PI) / 180);
       const sin = Math.sin((angleDeg * Math.PI) / 180);
-      const points = fractions.map((f, p): LayoutPoint => {
-        const { value, moved } = clampToWalls(f * duct.diameterM, duct.diameterM, wallMinimumM);
-        const signedRadius = radiusM - value;
-        return { line: k, point: p, xM: signedRadius * cos, yM: signedRadius * sin, positionM: value, depthM: value + offsetM, moved };
+      const points = down.map((f, p): LayoutPoint => {
+        const at = place(f, duct.diameterM);
+        const signedRadius = radiusM - at.value;
+        const readRadius = radiusM - at.read;
+        return {
+          line: k,
+          point: p,
+          xM: signedRadius * cos,
+          yM: signedRadius * sin,
+          positionM: at.value,
+          depthM: at.read + offsetM,
+          moved: at.moved,
+          readPositionM: at.read,
+          readXM: readRadius * cos,
+          readYM: readRadius * sin,
+          beyondProbeReach: at.beyond,
+        };
       });
       lines.push({ angleDeg, lineXM: null, points });
     }
   } else {
-    const across = method === "log-linear" ? (LOG_TCHEBYCHEFF_RECT[lineCount] ?? []) : equalAreaRectFractions(lineCount);
-    const down = method === "log-linear" ? (LOG_TCHEBYCHEFF_RECT[n] ?? []) : equalAreaRectFractions(n);
     for (const [k, fx] of across.entries()) {
-      const x = clampToWalls(fx * duct.widthM, duct.widthM, wallMinimumM);
+      const x = place(fx, duct.widthM);
       const points = down.map((fy, p): LayoutPoint => {
-        const y = clampToWalls(fy * duct.heightM, duct.heightM, wallMinimumM);
-        return { line: k, point: p, xM: x.value, yM: y.value, positionM: y.value, depthM: y.value + offsetM, moved: x.moved || y.moved };
+        const y = place(fy, duct.heightM);
+        return {
+          line: k,
+          point: p,
+          xM: x.value,
+          yM: y.value,
+          positionM: y.value,
+          depthM: y.read + offsetM,
+          moved: x.moved || y.moved,
+          readPositionM: y.read,
+          readXM: x.read,
+          readYM: y.read,
+          beyondProbeReach: x.beyond || y.beyond,
+        };
       });
       lines.push({ angleDeg: null, lineXM: x.value, points });
     }
   }
 
-  const moved = lines.flatMap((l) => l.points).filter((p) => p.moved).length;
+  let moved = 0;
+  let beyondReachCount = 0;
+  for (const line of lines) {
+    for (const p of line.points) {
+      if (p.moved) moved++;
+      if (p.beyondProbeReach) beyondReachCount++;
+    }
+  }
   if (moved > 0) {
-    warnings.push(`${moved} point${moved === 1 ? " was" : "s were"} closer than ${Math.round(wallMinimumM * 1000)} mm to a wall and moved out to it (US EPA Method 1 practice).`);
+    warnings.push(`${moved} point${moved === 1 ? " was" : "s were"} closer than ${Math.round(wallMinimumM * 1000)} mm to a wall and moved out to it (US EPA Method 1, for equal-area layouts).`);
     const collapsed = lines.some((l) => l.points.some((p, i) => i > 0 && Math.abs(p.positionM - (l.points[i - 1]?.positionM ?? NaN)) < 1e-9));
     if (collapsed) warnings.push("Moving points off the wall made some coincide: use fewer points per line for this duct.");
+  }
+  const suggestion = beyondReachCount > 0 ? reachableCounts(duct, method, lineCount, n, relocateM, reachM) : null;
+  if (beyondReachCount > 0) {
+    const headMm = Math.round(headM * 10_000) / 10;
+    const reachMm = Math.round(reachM * 10_000) / 10;
+    const advice = suggestion
+      ? `use ${suggestion.lines} ${suggestion.lines === 1 ? noun.slice(0, -1) : noun} × ${suggestion.pointsPerLine} points per line, which it can reach, or a probe with a smaller head`
+      : "use a probe with a smaller head or the equal-area method";
+    warnings.push(
+      `${beyondReachCount} point${beyondReachCount === 1 ? " lies" : "s lie"} closer to a wall than the ${headMm} mm probe head can reach (${reachMm} mm): ${beyondReachCount === 1 ? "it is" : "they are"} read at ${reachMm} mm instead, which biases the mean; ${advice}.`,
+    );
   }
   return {
     method,
@@ -306,7 +442,11 @@ export function buildLayout(req: LayoutRequest): Layout {
     lineCount,
     pointsPerLine: n,
     recommended: { lines: rec.lines, pointsPerLine: rec.pointsPerLine },
-    wallMinimumM,
+    wallMinimumM: relocateM,
+    probeHeadDiameterM: headM,
+    probeReachM: reachM,
+    beyondReachCount,
+    reachableCounts: suggestion,
     reason: `${lineCount} ${lineWord} × ${n} points${req.lines !== undefined || req.pointsPerLine !== undefined ? " (counts as given)" : ""}. Recommended: ${rec.reasons.join("; ")}.`,
     warnings,
   };

@@ -3,7 +3,7 @@
  * sum of its children's (steady flow, no storage). Volumes are compared only where densities agree.
  * Linear in the number of sections.
  */
-import { EngineInputError } from "./errors";
+import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS } from "./errors";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 
 /**
@@ -56,6 +56,15 @@ const DEFAULT_TOLERANCE_PCT = 10;
 const DENSITY_AGREEMENT = 0.001;
 /** Given mass flow and flow × density must agree this closely, or the input contradicts itself. */
 const MASS_CONSISTENCY = 0.001;
+/**
+ * Smallest non-zero flows taken as real: 1 mL/s of air, 1.2 mg/s (our choice, far below anything a field
+ * instrument resolves). Smaller non-zero values are typing or unit errors and would make percentages absurd.
+ */
+export const MIN_FLOW_M3_S = 1e-6;
+export const MIN_MASS_FLOW_KG_S = 1e-6;
+/** Loop paths in messages show this many ids at each end; longer ids are cut. */
+const LOOP_PATH_ENDS = 3;
+const ID_SHOWN_CHARS = 40;
 
 const isNum = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
 /** Min and max without spreading (a junction may have thousands of children). */
@@ -84,6 +93,14 @@ function resolveMassFlows(nodes: NetworkNode[], fields: Record<string, string>):
       fields[`${at}.flow_m3_s`] = `Flow ${String(node.flowM3S)} is not allowed: give zero or a positive number of m³/s.`;
       return;
     }
+    if (isNum(node.flowM3S) && node.flowM3S > 0 && node.flowM3S < MIN_FLOW_M3_S) {
+      fields[`${at}.flow_m3_s`] = `Flow ${node.flowM3S} m³/s is too small to be a measured flow: give 0 (no flow) or at least ${MIN_FLOW_M3_S} m³/s.`;
+      return;
+    }
+    if (isNum(node.massFlowKgS) && node.massFlowKgS > 0 && node.massFlowKgS < MIN_MASS_FLOW_KG_S) {
+      fields[`${at}.mass_flow_kg_s`] = `Mass flow ${node.massFlowKgS} kg/s is too small to be a measured flow: give 0 (no flow) or at least ${MIN_MASS_FLOW_KG_S} kg/s.`;
+      return;
+    }
     const fromVolume = hasVolume ? (node.flowM3S as number) * (node.densityKgM3 as number) : undefined;
     if (isNum(node.massFlowKgS)) {
       if (node.massFlowKgS < 0) {
@@ -105,9 +122,29 @@ function resolveMassFlows(nodes: NetworkNode[], fields: Record<string, string>):
   return mass;
 }
 
-/** Finds loops in the parent links (each node has one parent, so unreachable nodes lead into a loop). O(n). */
-function findLoops(nodes: NetworkNode[], parentIndex: Int32Array, fields: Record<string, string>): void {
+/** An id as shown in a message: quoted, cut to ID_SHOWN_CHARS. */
+function shownId(id: string | undefined): string {
+  const text = id ?? "";
+  return JSON.stringify(text.length > ID_SHOWN_CHARS ? `${text.slice(0, ID_SHOWN_CHARS)}…` : text);
+}
+
+/** A loop's path for a message, a → b → … → a, with only a few ids at each end of a long loop. */
+function loopPath(nodes: NetworkNode[], loop: number[]): string {
+  const ids = loop.map((k) => shownId(nodes[k]?.id));
+  const first = ids[0] ?? "";
+  if (ids.length <= 2 * LOOP_PATH_ENDS) return [...ids, first].join(" → ");
+  const skipped = ids.length - 2 * LOOP_PATH_ENDS;
+  return [...ids.slice(0, LOOP_PATH_ENDS), `… ${skipped.toLocaleString("en-US")} more …`, ...ids.slice(-LOOP_PATH_ENDS), first].join(" → ");
+}
+
+/**
+ * Finds loops in the parent links (each node has one parent, so unreachable nodes lead into a loop). O(n).
+ * Each loop is reported once, at its first member found, with a shortened path. Past MAX_FIELD_ERRORS
+ * loops are only counted: returns the number left unreported.
+ */
+function findLoops(nodes: NetworkNode[], parentIndex: Int32Array, fields: Record<string, string>): number {
   const state = new Uint8Array(nodes.length); // 0 unseen, 1 on the current walk, 2 settled
+  let unreported = 0;
   for (let start = 0; start < nodes.length; start++) {
     if (state[start] !== 0) continue;
     const walk: number[] = [];
@@ -118,14 +155,17 @@ function findLoops(nodes: NetworkNode[], parentIndex: Int32Array, fields: Record
       i = parentIndex[i] ?? -1;
     }
     if (i >= 0 && state[i] === 1) {
-      const loop = walk.slice(walk.indexOf(i));
-      const path = [...loop, i].map((k) => nodes[k]?.id).join(" → ");
-      for (const k of loop) {
-        fields[`nodes.${k}.parent`] = `Section "${nodes[k]?.id}" is in a loop (${path} by parent links); sections must form a tree leading back to a root with parent null.`;
+      if (Object.keys(fields).length >= MAX_FIELD_ERRORS) unreported++;
+      else {
+        const loop = walk.slice(walk.indexOf(i));
+        const size = loop.length === 1 ? "is its own parent" : `and ${(loop.length - 1).toLocaleString("en-US")} other section${loop.length === 2 ? "" : "s"} form a loop`;
+        fields[`nodes.${i}.parent`] =
+          `Section ${shownId(nodes[i]?.id)} ${size} by parent links (${loopPath(nodes, loop)}); sections must form a tree leading back to a root with parent null.`;
       }
     }
     for (const k of walk) state[k] = 2;
   }
+  return unreported;
 }
 
 function volumeNote(ids: string[], densities: (number | undefined)[], naivePct: number | null, summable: boolean): string {
@@ -167,7 +207,7 @@ export function checkContinuity(nodes: NetworkNode[], options: ContinuityOptions
     if (p === undefined) fields[`nodes.${i}.parent`] = `Parent "${node.parent}" of section "${node.id}" is not in the list; use an id given above, or null for a root.`;
     else parentIndex[i] = p;
   });
-  findLoops(nodes, parentIndex, fields);
+  const unreportedLoops = findLoops(nodes, parentIndex, fields);
   const mass = resolveMassFlows(nodes, fields);
 
   const children: number[][] = nodes.map(() => []);
@@ -185,8 +225,9 @@ export function checkContinuity(nodes: NetworkNode[], options: ContinuityOptions
 
   const keys = Object.keys(fields);
   if (keys.length > 0) {
-    const shown = keys.slice(0, 3).join(", ") + (keys.length > 3 ? ` and ${keys.length - 3} more` : "");
-    throw new NetworkError(`The section tree is not valid: check ${shown}.`, fields);
+    const total = keys.length + unreportedLoops;
+    const shown = keys.slice(0, 3).join(", ") + (total > 3 ? ` and ${(total - Math.min(3, keys.length)).toLocaleString("en-US")} more` : "");
+    throw new NetworkError(`The section tree is not valid: check ${shown}.`, capFieldErrors(fields, total));
   }
 
   const junctions: Junction[] = [];

@@ -9,7 +9,8 @@
  * - coefficient of variation of point velocities: ≤ 0.25 good, ≤ 0.40 marginal, above poor;
  * - zero or negative readings (no forward flow at the point): any is marginal, over 10 % poor;
  * - velocity pressures under 5 Pa (a ±1 Pa gauge is then ±9 % on velocity at 3 m/s): over half of
- *   the points marginal (a precision problem, not a profile one).
+ *   the points marginal (a precision problem, not a profile one). Only for readings taken as pressures:
+ *   an anemometer's error does not depend on the velocity pressure its reading corresponds to.
  */
 
 export type Verdict = "good" | "marginal" | "poor";
@@ -22,7 +23,7 @@ export interface PlaneQuality {
   /** Sample standard deviation / mean of point velocities. */
   cv: number;
   zeroOrNegativeCount: number;
-  /** Points with 0 < Pv < 5 Pa. */
+  /** Points read as pressures with 0 < Pv < 5 Pa (always 0 for anemometer readings). */
   lowPressureCount: number;
   count: number;
   verdict: Verdict;
@@ -50,20 +51,24 @@ function pct(x: number): string {
 /**
  * Judges a traverse plane from its point readings (the points actually read).
  * `velocityPressuresPa[i]` and `velocitiesMS[i]` belong to the same point; velocities of zero or
- * negative readings are 0. Throws RangeError for empty or mismatched inputs.
+ * negative readings are 0. With `readAsPressures: false` (anemometer readings, whose Pv is only the
+ * equivalent of the velocity) the low-pressure criterion is skipped. Throws RangeError for empty or
+ * mismatched inputs.
  */
-export function assessPlane(velocityPressuresPa: readonly number[], velocitiesMS: readonly number[]): PlaneQuality {
+export function assessPlane(velocityPressuresPa: readonly number[], velocitiesMS: readonly number[], options: { readAsPressures?: boolean } = {}): PlaneQuality {
   const count = velocitiesMS.length;
   if (count === 0 || velocityPressuresPa.length !== count) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
-  const maxPv = Math.max(...velocityPressuresPa);
+  let maxPv = -Infinity;
+  for (const pv of velocityPressuresPa) if (pv > maxPv) maxPv = pv;
   const shareAboveTenthOfMax = maxPv > 0 ? velocityPressuresPa.filter((pv) => pv > 0.1 * maxPv).length / count : 0;
   const mean = velocitiesMS.reduce((a, b) => a + b, 0) / count;
-  const maxV = Math.max(...velocitiesMS);
+  let maxV = -Infinity;
+  for (const v of velocitiesMS) if (v > maxV) maxV = v;
   const variance = count > 1 ? velocitiesMS.reduce((acc, v) => acc + (v - mean) ** 2, 0) / (count - 1) : 0;
   const maxOverMean = mean > 0 ? maxV / mean : Number.POSITIVE_INFINITY;
   const cv = mean > 0 ? Math.sqrt(variance) / mean : Number.POSITIVE_INFINITY;
   const zeroOrNegativeCount = velocityPressuresPa.filter((pv) => pv <= 0).length;
-  const lowPressureCount = velocityPressuresPa.filter((pv) => pv > 0 && pv < LOW_VELOCITY_PRESSURE_PA).length;
+  const lowPressureCount = options.readAsPressures === false ? 0 : velocityPressuresPa.filter((pv) => pv > 0 && pv < LOW_VELOCITY_PRESSURE_PA).length;
 
   let verdict: Verdict = "good";
   const reasons: string[] = [];

@@ -5,16 +5,22 @@
  */
 import { airState, type AirConditions, type AirState } from "./air";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
-import { planeMean, powerLawLayoutError, type IntegrationRule } from "./integrate";
-import { buildLayout, ductAreaM2, equivalentDiameterM, type Layout, type LayoutRequest } from "./layout";
+import { EngineInputError } from "./errors";
+import { developedProfileGrid, layoutErrorOnDevelopedProfile, planeMean, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
+import { buildLayout, ductAreaM2, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest } from "./layout";
 import { assessPlane, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
 import {
+  COVERAGE_FACTOR,
   DEFAULT_INSTRUMENT_ACCURACY,
   densityRelativeUncertainty,
+  formatExpandedUncertainty,
   pressureReadingRelativeUncertainty,
+  samplingUncertainty,
   traverseUncertainty,
   velocityReadingRelativeUncertainty,
+  type FlowUncertainty,
   type InstrumentAccuracy,
+  type SamplingUncertainty,
   type UncertaintyTerms,
 } from "./uncertainty";
 import { actualVelocityFromStandardMS, exceedsMachLimit, machNumber, velocityFromPressureMS, velocityPressureFromVelocityPa } from "./velocity";
@@ -27,7 +33,13 @@ export interface TraverseInput extends LayoutRequest {
   air: AirConditions;
   /** Probe coefficient C (1.0 for a standard pitot-static tube, common practice). */
   probeCoefficient?: number;
+  /** The project's standard air density, kg/m³, that defines standard flow (default 1.204). */
   standardDensityKgM3?: number;
+  /**
+   * For "velocity_standard" readings: the density the anemometer refers its standard velocity to, kg/m³
+   * (its own reference, from its manual). Default: standardDensityKgM3.
+   */
+  instrumentStandardDensityKgM3?: number;
   /** Line by line, point by point in layout order; null marks a point that could not be read. */
   readings: readonly (readonly (number | null)[])[];
   readingsKind?: ReadingsKind;
@@ -40,16 +52,38 @@ export interface TraversePoint {
   xM: number;
   yM: number;
   depthM: number;
+  /** The method's published position along the line, and where the probe actually read (see LayoutPoint). */
+  positionM: number;
+  readPositionM: number;
+  beyondProbeReach: boolean;
   reading: number | null;
   /** Read, or for anemometer readings the equivalent pitot velocity pressure. */
   velocityPressurePa: number | null;
   velocityMS: number | null;
+  /** For a point not read whose gap was filled: how, and the velocity used in the mean. */
+  filledFrom: GapFillSource | null;
+  filledVelocityMS: number | null;
+}
+
+/** Uncertainty of the three flows; `combined`, `expanded` and `terms` at the top are the standard flow's. */
+export interface TraverseUncertainty extends FlowUncertainty {
+  /** Combined relative standard uncertainty (k = 1) of the standard flow. */
+  combined: number;
+  /** Expanded relative uncertainty (k = 2, about 95 %) of the standard flow. */
+  expanded: number;
+  terms: UncertaintyTerms;
+  actual: FlowUncertainty;
+  standard: FlowUncertainty;
+  mass: FlowUncertainty;
+  sampling: SamplingUncertainty;
 }
 
 export interface TraverseResult {
   air: AirState;
   densityKgM3: number;
   standardDensityKgM3: number;
+  /** The reference density of standard-velocity readings (null for other kinds). */
+  instrumentStandardDensityKgM3: number | null;
   readingsKind: ReadingsKind;
   meanVelocityMS: number;
   areaM2: number;
@@ -60,10 +94,12 @@ export interface TraverseResult {
   reynolds: number;
   maxMach: number;
   integrationRule: IntegrationRule;
+  /** Points not read whose gaps were filled from counterparts (empty when none, or when tributary areas were used). */
+  filled: FilledPoint[];
   layout: Layout;
   points: TraversePoint[];
   quality: PlaneQuality;
-  uncertainty: { combined: number; terms: UncertaintyTerms };
+  uncertainty: TraverseUncertainty;
   warnings: string[];
 }
 
@@ -71,21 +107,70 @@ export interface TraverseResult {
 export const OUTLIER_OVER_MEAN = 3;
 /** Below this Reynolds number duct flow may be laminar and the turbulent-profile layouts do not apply (common practice). */
 const LAMINAR_REYNOLDS = 2300;
-/** Above this combined uncertainty the result deserves a warning (field traverses typically reach 5–10 %; from memory). */
-const HIGH_UNCERTAINTY = 0.1;
+/** Above this expanded uncertainty (k = 2) the result deserves a warning (field traverses typically reach 5–10 %; from memory). */
+const HIGH_EXPANDED_UNCERTAINTY = 0.1;
+/** More than this share of negative readings means the pitot hoses are most likely swapped (common practice). */
+const REVERSED_SHARE = 0.5;
+
+/**
+ * Exponent of the density in each flow for each kind of reading (see lib/airflow/uncertainty.ts):
+ * pitot V ∝ ρ^(−½); actual velocities are independent of ρ; standard velocities are mass flux.
+ */
+const DENSITY_EXPONENT: Record<ReadingsKind, { actual: number; standard: number; mass: number }> = {
+  velocity_pressure: { actual: 0.5, standard: 0.5, mass: 0.5 },
+  velocity_actual: { actual: 0, standard: 1, mass: 1 },
+  velocity_standard: { actual: 1, standard: 0, mass: 0 },
+};
 
 function plural(n: number, one: string, many: string): string {
   return `${n} ${n === 1 ? one : many}`;
 }
 
+const FILL_WORDS: Record<GapFillSource, string> = {
+  mirror: "the point at the same radius or mirrored position",
+  "along-line": "interpolation along the line",
+  "across-lines": "interpolation across the lines",
+  "same-radius": "the points at the same radius on the other diameters",
+};
+
+/** Refuses readings that cannot be a traverse of forward flow: most negative (hoses swapped), or none positive. */
+function checkForwardFlow(readings: readonly (readonly (number | null)[])[], kind: ReadingsKind): void {
+  let read = 0;
+  let negative = 0;
+  let positive = 0;
+  for (const row of readings) {
+    for (const v of row) {
+      if (v === null) continue;
+      read++;
+      if (v < 0) negative++;
+      else if (v > 0) positive++;
+    }
+  }
+  if (read > 0 && negative / read > REVERSED_SHARE) {
+    const what = kind === "velocity_pressure"
+      ? "the total and static connections of the pitot tube (or the manometer ports) may be reversed: swap them and read again"
+      : "the anemometer may be facing downstream: turn it to face the flow and read again";
+    throw new EngineInputError(`Most readings are negative (${negative} of ${read}): ${what}.`, {
+      readings: `${negative} of ${read} readings are negative; ${what}. If the flow here really runs backwards, this plane cannot be traversed.`,
+    });
+  }
+  if (read > 0 && positive === 0) {
+    throw new EngineInputError(`No reading shows forward flow (${read} read, none above 0).`, {
+      readings: `none of the ${read} readings is above 0, so there is no flow to integrate; check that the fan runs, the tubing is connected and the probe faces the flow`,
+    });
+  }
+}
+
 /**
  * Reduces a traverse. Input is assumed validated (see lib/validation/calc.ts): readings must match the
- * layout's shape. Throws AirStateError for impossible air, RangeError for a readings/layout mismatch.
+ * layout's shape. Throws AirStateError for impossible air, EngineInputError (field `readings`) when most
+ * readings are negative (swapped connections) or none is positive, RangeError for a readings/layout mismatch.
  */
 export function reduceTraverse(input: TraverseInput): TraverseResult {
   const kind = input.readingsKind ?? "velocity_pressure";
   const coefficient = input.probeCoefficient ?? 1;
   const standardDensityKgM3 = input.standardDensityKgM3 ?? STANDARD_DENSITY_KG_M3;
+  const instrumentDensityKgM3 = input.instrumentStandardDensityKgM3 ?? standardDensityKgM3;
   // Only the accuracies actually given replace the defaults (an explicit undefined must not).
   const given = Object.entries(input.instrument ?? {}).filter(([, v]) => v !== undefined);
   const accuracy: InstrumentAccuracy = { ...DEFAULT_INSTRUMENT_ACCURACY, ...Object.fromEntries(given) };
@@ -97,9 +182,11 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     straightUpstreamM: input.straightUpstreamM,
     straightDownstreamM: input.straightDownstreamM,
     portOffsetM: input.portOffsetM,
+    probeHeadDiameterM: input.probeHeadDiameterM,
   });
   if (input.readings.length !== layout.lineCount || input.readings.some((row) => row.length !== layout.pointsPerLine))
     throw new RangeError(`readings must be ${layout.lineCount} lines of ${layout.pointsPerLine} values`);
+  checkForwardFlow(input.readings, kind);
 
   const air = airState(input.air);
   const rho = air.densityKgM3;
@@ -107,7 +194,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
 
   const toVelocity = (reading: number): { pv: number; v: number } => {
     if (kind === "velocity_pressure") return { pv: reading, v: velocityFromPressureMS(reading, rho, air.absolutePressurePa, coefficient) };
-    const v = Math.max(0, kind === "velocity_actual" ? reading : actualVelocityFromStandardMS(reading, rho, standardDensityKgM3));
+    const v = Math.max(0, kind === "velocity_actual" ? reading : actualVelocityFromStandardMS(reading, rho, instrumentDensityKgM3));
     // Equivalent Pv keeps the sign so a reverse reading still counts as zero/negative in the plane check.
     const pv = reading < 0 ? -velocityPressureFromVelocityPa(Math.abs(reading), rho, air.absolutePressurePa) : velocityPressureFromVelocityPa(v, rho, air.absolutePressurePa);
     return { pv, v };
@@ -118,29 +205,59 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     line.points.map((p, i) => {
       const reading = input.readings[k]?.[i] ?? null;
       const converted = reading === null ? null : toVelocity(reading);
-      points.push({ line: k, point: i, xM: p.xM, yM: p.yM, depthM: p.depthM, reading, velocityPressurePa: converted?.pv ?? null, velocityMS: converted?.v ?? null });
+      points.push({
+        line: k,
+        point: i,
+        xM: p.xM,
+        yM: p.yM,
+        depthM: p.depthM,
+        positionM: p.positionM,
+        readPositionM: p.readPositionM,
+        beyondProbeReach: p.beyondProbeReach,
+        reading,
+        velocityPressurePa: converted?.pv ?? null,
+        velocityMS: converted?.v ?? null,
+        filledFrom: null,
+        filledVelocityMS: null,
+      });
       return converted?.v ?? null;
     }),
   );
   const read = points.filter((p) => p.velocityMS !== null);
   if (read.length === 0) throw new RangeError("readings: at least one point must be read");
-  const missing = points.length - read.length;
-  if (missing > 0) warnings.push(`${plural(missing, "point was", "points were")} not read; the mean uses tributary areas around the points read.`);
 
-  const { mean: meanVelocityMS, rule } = planeMean(layout, velocities);
+  const { mean: meanVelocityMS, rule, filled } = planeMean(layout, velocities);
+  const perLine = layout.pointsPerLine;
+  for (const f of filled) {
+    const point = points[f.line * perLine + f.point];
+    if (point) {
+      point.filledFrom = f.from;
+      point.filledVelocityMS = f.value;
+    }
+  }
+  const missing = points.length - read.length;
+  if (missing > 0 && rule === "tributary-area")
+    warnings.push(`${plural(missing, "point was", "points were")} not read, too many to fill from their counterparts; the mean uses tributary areas around the points read instead of the method's own weights.`);
+  else if (missing > 0) {
+    const how = [...new Set(filled.map((f) => FILL_WORDS[f.from]))].join(", ");
+    warnings.push(`${plural(missing, "point was", "points were")} not read; the method's own weights were kept and each gap filled from ${how}.`);
+  }
+
   const areaM2 = ductAreaM2(input.duct);
   const hydraulicDiameterM = equivalentDiameterM(input.duct);
   const flowM3S = areaM2 * meanVelocityMS;
   const massFlowKgS = rho * flowM3S;
   const reynolds = (rho * meanVelocityMS * hydraulicDiameterM) / air.viscosityPaS;
-  const maxVelocity = Math.max(...read.map((p) => p.velocityMS ?? 0));
+  let maxVelocity = 0;
+  for (const p of read) if ((p.velocityMS ?? 0) > maxVelocity) maxVelocity = p.velocityMS ?? 0;
   const maxMach = machNumber(maxVelocity, air.dryBulbC);
 
   const pvs = read.map((p) => p.velocityPressurePa ?? 0);
-  const quality = assessPlane(pvs, read.map((p) => p.velocityMS ?? 0));
+  const readVelocities = read.map((p) => p.velocityMS ?? 0);
+  const quality = assessPlane(pvs, readVelocities, { readAsPressures: kind === "velocity_pressure" });
   if (quality.zeroOrNegativeCount > 0)
     warnings.push(`${plural(quality.zeroOrNegativeCount, "point reads", "points read")} zero or negative; counted as zero velocity (reverse flow or swirl at the plane?).`);
-  if (kind === "velocity_pressure" && quality.lowPressureCount > 0)
+  if (quality.lowPressureCount > 0)
     warnings.push(`${plural(quality.lowPressureCount, "point reads", "points read")} under ${LOW_VELOCITY_PRESSURE_PA} Pa, where the gauge's own error is large.`);
   for (const p of read) {
     if (meanVelocityMS > 0 && (p.velocityMS ?? 0) > OUTLIER_OVER_MEAN * meanVelocityMS)
@@ -150,24 +267,34 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   if (meanVelocityMS > 0 && reynolds < LAMINAR_REYNOLDS) warnings.push(`Reynolds number ${Math.round(reynolds)} is under ${LAMINAR_REYNOLDS}: the flow may be laminar, and the layouts assume turbulent flow.`);
   if (quality.verdict !== "good") warnings.push(`Plane quality is ${quality.verdict}: ${quality.reasons.join(" ")}`);
 
-  const mask = layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null));
-  const uncertainty = traverseUncertainty({
+  // The developed reference profile at every read position serves both the layout term and the sampling term.
+  const profile = developedProfileGrid(layout);
+  const mask = missing > 0 ? layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null)) : undefined;
+  const developed = read.map((p) => profile[p.line]?.[p.point] ?? 1);
+  const sampling = samplingUncertainty(readVelocities, developed, straightRunClass(input));
+  const common = {
     duct: input.duct,
     accuracy,
     readingRelative: kind === "velocity_pressure" ? pressureReadingRelativeUncertainty(pvs, accuracy) : velocityReadingRelativeUncertainty(read.map((p) => p.reading ?? 0), accuracy),
     densityRelative: densityRelativeUncertainty(input.air, accuracy),
-    // Q ∝ ρ^(−½) from pitot readings, independent of ρ from actual velocities, ∝ ρ^(−1) from standard velocities.
-    densitySensitivity: kind === "velocity_pressure" ? 0.5 : kind === "velocity_actual" ? 0 : 1,
-    layoutError: powerLawLayoutError(layout, mask),
+    layoutError: layoutErrorOnDevelopedProfile(layout, profile, mask),
     pointCount: read.length,
-  });
-  if (uncertainty.combined > HIGH_UNCERTAINTY)
-    warnings.push(`Estimated uncertainty ±${Number.isFinite(uncertainty.combined) ? (uncertainty.combined * 100).toFixed(1) : "∞"} % is high; see the quality reasons and instrument accuracy.`);
+    samplingRelative: sampling.relative,
+  };
+  const exponents = DENSITY_EXPONENT[kind];
+  const actual = traverseUncertainty({ ...common, densitySensitivity: exponents.actual });
+  const standard = traverseUncertainty({ ...common, densitySensitivity: exponents.standard });
+  const mass = traverseUncertainty({ ...common, densitySensitivity: exponents.mass });
+  const uncertainty: TraverseUncertainty = { ...standard, coverageFactor: COVERAGE_FACTOR, actual, standard, mass, sampling };
+  const worst = Math.max(actual.expanded, standard.expanded, mass.expanded);
+  if (!(worst <= HIGH_EXPANDED_UNCERTAINTY))
+    warnings.push(`Expanded uncertainty of the flow is high, up to ${formatExpandedUncertainty(worst)}; see the quality reasons, the number of points and the instrument accuracy.`);
 
   return {
     air,
     densityKgM3: rho,
     standardDensityKgM3,
+    instrumentStandardDensityKgM3: kind === "velocity_standard" ? instrumentDensityKgM3 : null,
     readingsKind: kind,
     meanVelocityMS,
     areaM2,
@@ -178,6 +305,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     reynolds,
     maxMach,
     integrationRule: rule,
+    filled,
     layout,
     points,
     quality,

@@ -1,20 +1,44 @@
 /**
- * Uncertainty of a traverse flow by the GUM law of propagation of uncertainty (JCGM 100:2008 §5.1),
- * first order, the inputs taken as uncorrelated:
+ * Uncertainty of a traverse flow by the GUM (JCGM 100:2008), first order, inputs uncorrelated (§5.1.2):
  *
- *   (u_Q/Q)² = dimension² + (½·u_Pv/Pv)² + (½·u_ρ/ρ)² + u_layout² + u_random²/N
+ *   (u_Q/Q)² = u_dim² + u_reading² + (c_ρ·u_ρ/ρ)² + u_layout² + u_random² + u_sampling²
  *
- * Each stated instrument accuracy is used as the standard uncertainty of that input, so the result
- * has the same coverage as the accuracies given. The ½ factors come from V ∝ √(Pv/ρ).
- *
- * u_random is the scatter of repeated readings at one point (turbulence, gauge damping), which averages
- * down over N points. The spatial spread of a steady profile is not random: its effect on the mean is
- * the layout's integration error (u_layout); a distorted plane is reported by the plane-quality verdict.
+ * - Instrument figures (±% of reading + floor, ±°C, ±Pa, ±mm, ±% RH) are a maker's specification
+ *   limits ±a with no stated distribution: each is taken as rectangular, standard uncertainty a/√3
+ *   (GUM §4.3.7). So are the weather swing of an unmeasured barometer and the assumed range of an
+ *   unmeasured duct static pressure, and the layout's integration error on the reference profile
+ *   (a bound of the method's bias, not a correction).
+ * - `repeatabilityPct` is the experimental standard deviation of one time-averaged point reading;
+ *   its mean over N points has s/√N (GUM §4.2.3).
+ * - c_ρ is the exponent of density in the flow: pitot readings give V ∝ ρ^(−½), so actual flow ∝ ρ^(−½)
+ *   and mass and standard flow ∝ ρ^(½); actual velocities give actual flow ∝ ρ⁰, mass and standard
+ *   flow ∝ ρ¹; standard velocities (mass flux, referred to the instrument's reference density) give
+ *   mass and standard flow ∝ ρ⁰ and actual flow ∝ ρ^(−1). The standard density itself is a defined
+ *   constant, without uncertainty.
+ * - Sampling (method ours; we could not confirm a published formula in ISO 3966 or ISO 5168 and do not
+ *   claim one): a traverse samples the plane at N points, and the more uneven the profile the more the
+ *   unsampled area can differ from what the points suggest. We take the spread of the point velocities
+ *   about the better of two smooth shapes, flat (the sample coefficient of variation of the velocities)
+ *   and fully developed (the coefficient of variation of each velocity divided by the 1/7-law value at
+ *   its read position), as the unevenness s, and its standard deviation of the mean s/√N (the form of
+ *   GUM §4.2.3) as the sampling term. A plane whose points follow either shape has no sampling term,
+ *   so a well-developed profile is not penalised for the wall gradient its layout already integrates
+ *   (that is the layout term). On a short straight run the term is multiplied by 1.25 (under 7.5 D
+ *   upstream or 2 D downstream) or 1.5 (under 2 D / 0.5 D): the profile there changes between and
+ *   across points in ways the readings cannot show (factors ours).
+ * - The expanded uncertainty is U = k·u_c with k = 2, about 95 % coverage for a near-normal result
+ *   (GUM §6.2.1, §6.3.3). Every figure shown to a user is the expanded one, with k stated: see
+ *   formatExpandedUncertainty.
  */
 import { airState, barometricPressureFromAltitudePa, type AirConditions } from "./air";
+import { ASSUMED_STATIC_UNCERTAINTY_PA } from "./constants";
 import type { Duct } from "./layout";
 
-/** Accuracies of the instruments used. Defaults are typical field instruments (common practice). */
+/**
+ * Accuracies of the instruments used, as the maker states them: specification limits ± (rectangular,
+ * see the module comment), except repeatabilityPct, a standard deviation. Defaults are typical field
+ * instruments (common practice).
+ */
 export interface InstrumentAccuracy {
   /** Manometer: ± % of reading… */
   pressureAccuracyPct: number;
@@ -32,7 +56,7 @@ export interface InstrumentAccuracy {
   velocityAccuracyPct: number;
   /** …plus ± this many m/s. */
   velocityFloorMS: number;
-  /** Scatter of repeated time-averaged readings at one point, ± % of velocity. */
+  /** Scatter of repeated time-averaged readings at one point, one standard deviation, % of velocity. */
   repeatabilityPct: number;
 }
 
@@ -52,25 +76,50 @@ export const DEFAULT_INSTRUMENT_ACCURACY: InstrumentAccuracy = {
   repeatabilityPct: 2,
 };
 
-/** Day-to-day weather swing of station pressure about the standard atmosphere, used when only altitude is known (from memory). */
+/** Day-to-day weather swing of station pressure about the standard atmosphere, a limit ±, used when only altitude is known (from memory). */
 export const ALTITUDE_BAROMETRIC_UNCERTAINTY_PA = 3000;
 
+
+/** Coverage factor of every reported uncertainty: k = 2, about 95 % for a near-normal result (GUM §6.2.1, §6.3.3). */
+export const COVERAGE_FACTOR = 2;
+
+const SQRT3 = Math.sqrt(3);
+
+/** Sampling-term multipliers for a short straight run (ours; see the module comment). */
+export const SHORT_RUN_SAMPLING_FACTOR = 1.25;
+export const UNSUITABLE_RUN_SAMPLING_FACTOR = 1.5;
+
+/** Relative standard uncertainties (k = 1) of a flow, one per input. Fractions, e.g. 0.01 = 1 %. */
 export interface UncertaintyTerms {
-  /** Relative uncertainty of the area from the dimensions. */
+  /** The area, from the dimensions. */
   dimension: number;
-  /** Relative uncertainty of the mean velocity from the readings (½·u_Pv/Pv for a pitot tube). */
+  /** The mean velocity, from the readings' accuracy (½·u_Pv/Pv for a pitot tube). */
   reading: number;
-  /** ½·u_ρ/ρ for pitot readings. */
+  /** c_ρ·u_ρ/ρ, c_ρ the exponent of density in this flow. */
   density: number;
-  /** Integration error of the layout. */
+  /** Integration error of the layout (and of any gap filling) on the reference profile. */
   layout: number;
   /** Repeatability of a point reading / √N. */
   random: number;
+  /** Unevenness of the profile / √N, raised on a short straight run (method ours). */
+  sampling: number;
 }
 
-/** Root-sum-square of relative terms (GUM, uncorrelated inputs). All fractions, e.g. 0.01 = 1 %. */
+/** Root-sum-square of relative terms (GUM §5.1.2, uncorrelated inputs). All fractions, e.g. 0.01 = 1 %. */
 export function combineRelative(terms: UncertaintyTerms): number {
-  return Math.hypot(terms.dimension, terms.reading, terms.density, terms.layout, terms.random);
+  return Math.hypot(terms.dimension, terms.reading, terms.density, terms.layout, terms.random, terms.sampling);
+}
+
+/**
+ * An expanded uncertainty as screens and reports show it: "± 6.1 % (k = 2, about 95 %)".
+ * `relative` is the expanded uncertainty as a fraction (0.061). Not finite → says it cannot be given.
+ */
+export function formatExpandedUncertainty(relative: number, options: { digits?: number; coverageFactor?: number } = {}): string {
+  const k = options.coverageFactor ?? COVERAGE_FACTOR;
+  const coverage = k === 2 ? "about 95 %" : `k = ${k}`;
+  if (!Number.isFinite(relative)) return `not determinable (k = ${k}, ${coverage})`;
+  const digits = options.digits ?? 1;
+  return `± ${(relative * 100).toFixed(digits)} % (k = ${k}${k === 2 ? `, ${coverage}` : ""})`;
 }
 
 /** Relative uncertainty of the area: 2·u_D/D for round ducts, √((u_W/W)² + (u_H/H)²) for rectangular. */
@@ -81,8 +130,8 @@ export function areaRelativeUncertainty(duct: Duct, dimensionAccuracyM: number):
 }
 
 /**
- * Relative uncertainty of the mean velocity from velocity pressures (Pa) read with a manometer of
- * ±(pct % of reading + floor Pa). Per point, δv ∝ (√(Pv + u) − √(max(Pv − u, 0)))/2 — ½·u/Pv of the
+ * Relative error bound (a specification limit, not yet a standard uncertainty) of the mean velocity from
+ * velocity pressures (Pa) read with a manometer of ±(pct % of reading + floor Pa). Per point, δv ∝ (√(Pv + u) − √(max(Pv − u, 0)))/2 — ½·u/Pv of the
  * velocity when u ≪ Pv, and still finite at Pv ≤ 0. The gauge error is the same instrument at every
  * point, so the point errors are summed (fully correlated) before dividing by the sum of velocities.
  */
@@ -98,7 +147,7 @@ export function pressureReadingRelativeUncertainty(velocityPressuresPa: readonly
   return velocitySum > 0 ? errorSum / velocitySum : Number.POSITIVE_INFINITY;
 }
 
-/** Relative uncertainty of the mean velocity from anemometer velocities (m/s) of ±(pct % + floor m/s), correlated as above. */
+/** Relative error bound of the mean velocity from anemometer velocities (m/s) of ±(pct % + floor m/s), correlated as above. */
 export function velocityReadingRelativeUncertainty(velocitiesMS: readonly number[], accuracy: Pick<InstrumentAccuracy, "velocityAccuracyPct" | "velocityFloorMS">): number {
   const sum = velocitiesMS.reduce((a, v) => a + Math.max(v, 0), 0);
   const err = velocitiesMS.reduce((a, v) => a + (accuracy.velocityAccuracyPct / 100) * Math.abs(v) + accuracy.velocityFloorMS, 0);
@@ -114,20 +163,22 @@ function densityAt(conditions: AirConditions): number | null {
 }
 
 /**
- * Relative standard uncertainty of the air density, u_ρ/ρ, from the accuracy of temperature,
- * barometric, static and humidity readings. Sensitivities are central differences of the density
+ * Relative error bound of the air density from the specification limits of temperature, barometric,
+ * static and humidity readings (root-sum-square of each limit's effect; divide by √3 for the standard
+ * uncertainty, as traverseUncertainty does). An unmeasured static pressure counts ±ASSUMED_STATIC_UNCERTAINTY_PA. Sensitivities are central differences of the density
  * (GUM §5.1.3 allows numerical sensitivity coefficients), one-sided where a step leaves the valid range.
  */
 export function densityRelativeUncertainty(conditions: AirConditions, accuracy: InstrumentAccuracy): number {
   const rho = densityAt(conditions);
   if (rho === null) return Number.NaN;
   const barometricU = conditions.barometricPa !== undefined ? accuracy.barometricAccuracyPa : ALTITUDE_BAROMETRIC_UNCERTAINTY_PA;
-  const staticU = (accuracy.pressureAccuracyPct / 100) * Math.abs(conditions.staticPa) + accuracy.pressureFloorPa;
+  const staticPa = conditions.staticPa;
+  const staticU = staticPa === undefined ? ASSUMED_STATIC_UNCERTAINTY_PA : (accuracy.pressureAccuracyPct / 100) * Math.abs(staticPa) + accuracy.pressureFloorPa;
   const steps: Array<[u: number, shift: (c: AirConditions, d: number) => AirConditions]> = [
     // Dry-bulb alone; when humidity is a wet-bulb it is perturbed separately below.
     [accuracy.temperatureAccuracyC, (c, d) => ({ ...c, dryBulbC: c.dryBulbC + d })],
     [barometricU, (c, d) => ({ ...c, barometricPa: (c.barometricPa ?? barometricPressureFromAltitudePa(c.altitudeM ?? 0)) + d, altitudeM: undefined })],
-    [staticU, (c, d) => ({ ...c, staticPa: c.staticPa + d })],
+    [staticU, (c, d) => ({ ...c, staticPa: (c.staticPa ?? 0) + d })],
   ];
   if (conditions.relativeHumidityPct !== undefined) {
     steps.push([accuracy.humidityAccuracyPct, (c, d) => ({ ...c, relativeHumidityPct: Math.min(100, Math.max(0, (c.relativeHumidityPct ?? 0) + d)) })]);
@@ -148,26 +199,80 @@ export function densityRelativeUncertainty(conditions: AirConditions, accuracy: 
 export interface TraverseUncertaintyInput {
   duct: Duct;
   accuracy: InstrumentAccuracy;
-  /** Relative uncertainty of the mean velocity from the readings (see the *ReadingRelativeUncertainty functions). */
+  /** Relative error bound of the mean velocity from the readings (see the *ReadingRelativeUncertainty functions). */
   readingRelative: number;
-  /** u_ρ/ρ. */
+  /** Relative error bound of the density (see densityRelativeUncertainty). */
   densityRelative: number;
-  /** Exponent of ρ in the flow: ½ from pitot readings (default), 0 from actual velocities, 1 from standard velocities. */
+  /** Exponent of ρ in the flow (sign ignored): ½ for any flow from pitot readings (default), see the module comment. */
   densitySensitivity?: number;
-  /** Integration error of the layout as a fraction (sign ignored). */
+  /** Integration error of the layout as a fraction (sign ignored), a bound. */
   layoutError: number;
   /** Number of points read: the repeatability of each averages down by √N. */
   pointCount: number;
+  /** Relative standard uncertainty from sampling (see samplingUncertainty); 0 when omitted. */
+  samplingRelative?: number;
 }
 
-/** The terms and the combined relative standard uncertainty of a traverse flow (fractions). */
-export function traverseUncertainty(input: TraverseUncertaintyInput): { terms: UncertaintyTerms; combined: number } {
+export interface FlowUncertainty {
+  /** Terms as relative standard uncertainties (k = 1). */
+  terms: UncertaintyTerms;
+  /** Combined relative standard uncertainty u_c (k = 1). */
+  combined: number;
+  /** Expanded relative uncertainty U = k·u_c. */
+  expanded: number;
+  coverageFactor: number;
+}
+
+/** The terms, combined standard and expanded (k = 2) relative uncertainty of one traverse flow. */
+export function traverseUncertainty(input: TraverseUncertaintyInput): FlowUncertainty {
   const terms: UncertaintyTerms = {
-    dimension: areaRelativeUncertainty(input.duct, input.accuracy.dimensionAccuracyM),
-    reading: input.readingRelative,
-    density: (input.densitySensitivity ?? 0.5) * input.densityRelative,
-    layout: Math.abs(input.layoutError),
+    dimension: areaRelativeUncertainty(input.duct, input.accuracy.dimensionAccuracyM) / SQRT3,
+    reading: input.readingRelative / SQRT3,
+    density: (Math.abs(input.densitySensitivity ?? 0.5) * input.densityRelative) / SQRT3,
+    layout: Math.abs(input.layoutError) / SQRT3,
     random: input.pointCount > 0 ? input.accuracy.repeatabilityPct / 100 / Math.sqrt(input.pointCount) : 0,
+    sampling: input.samplingRelative ?? 0,
   };
-  return { terms, combined: combineRelative(terms) };
+  const combined = combineRelative(terms);
+  return { terms, combined, expanded: COVERAGE_FACTOR * combined, coverageFactor: COVERAGE_FACTOR };
+}
+
+/** Straight run at the plane, as the layout judged it. */
+export type StraightRun = "unknown" | "good" | "short" | "unsuitable";
+
+export interface SamplingUncertainty {
+  /** Relative standard uncertainty from sampling, u = factor·s/√N. */
+  relative: number;
+  /** s: the smaller of the spread about a flat and about a fully developed profile (coefficients of variation). */
+  unevenness: number;
+  /** Straight-run multiplier: 1, 1.25 (short) or 1.5 (unsuitable). */
+  factor: number;
+  pointCount: number;
+}
+
+function coefficientOfVariation(values: readonly number[]): number {
+  const n = values.length;
+  if (n < 2) return 0;
+  let sum = 0;
+  for (const v of values) sum += v;
+  const mean = sum / n;
+  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
+  let ss = 0;
+  for (const v of values) ss += (v - mean) ** 2;
+  return Math.sqrt(ss / (n - 1)) / mean;
+}
+
+/**
+ * Sampling term of a traverse (method ours; see the module comment). `velocitiesMS[i]` is the velocity
+ * read at a point and `developed[i]` the fully developed reference profile at that point's read position
+ * (any positive scale). Points not read are left out of both.
+ */
+export function samplingUncertainty(velocitiesMS: readonly number[], developed: readonly number[], straightRun: StraightRun = "unknown"): SamplingUncertainty {
+  const n = velocitiesMS.length;
+  const factor = straightRun === "unsuitable" ? UNSUITABLE_RUN_SAMPLING_FACTOR : straightRun === "short" ? SHORT_RUN_SAMPLING_FACTOR : 1;
+  if (n === 0) return { relative: Number.POSITIVE_INFINITY, unevenness: Number.POSITIVE_INFINITY, factor, pointCount: 0 };
+  const flat = coefficientOfVariation(velocitiesMS);
+  const shaped = coefficientOfVariation(velocitiesMS.map((v, i) => v / Math.max(developed[i] ?? 1, 1e-6)));
+  const unevenness = Math.min(flat, shaped);
+  return { relative: (factor * unevenness) / Math.sqrt(n), unevenness, factor, pointCount: n };
 }

@@ -2,19 +2,35 @@ import "server-only";
 import { notFound, redirect } from "next/navigation";
 import { cache } from "react";
 import { getUserById, type SessionUser } from "@/db/queries/users";
-import { getProjectAccess, type ProjectAccess } from "@/db/queries/projects";
+import { getProjectAccess, getUserWithProjectAccess, type ProjectAccess } from "@/db/queries/projects";
 import { can, type Action } from "./policy";
-import { getSession } from "./session";
+import { readSession, sessionIsCurrent } from "./session";
 
 /**
- * The signed-in user, read fresh from the database so a removed account loses access at once.
+ * The signed-in user, read fresh from the database so a removed account loses access at once, and
+ * only while the session's version is the user's current one (sign-out everywhere and a password
+ * change raise it). The version comes with the user row: no extra query.
  * Cached per server render: the layout and the page ask once between them.
  */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {
-  const session = await getSession();
+  const session = await readSession();
   if (!session.userId) return null;
-  return getUserById({ id: session.userId });
+  const user = await getUserById({ id: session.userId });
+  return user && sessionIsCurrent(session, user.sessionVersion) ? user : null;
 });
+
+/**
+ * For project API routes: the signed-in user and their access to one project in a single query
+ * (user row, project and membership together), so a project request costs one round trip before
+ * the handler runs.
+ */
+export async function currentUserWithProject(projectId: string): Promise<{ user: SessionUser; access: ProjectAccess | null } | null> {
+  const session = await readSession();
+  if (!session.userId) return null;
+  const found = await getUserWithProjectAccess({ userId: session.userId, projectId });
+  if (!found || !sessionIsCurrent(session, found.user.sessionVersion)) return null;
+  return found;
+}
 
 const projectAccess = cache((userId: string, projectId: string) => getProjectAccess({ userId, projectId }));
 
@@ -34,11 +50,14 @@ export type AccessCheck =
  * May this user take this action in this project? A project the user cannot see at all is
  * reported as not found, so its existence is not revealed.
  */
-export async function checkProjectAccess(user: SessionUser, projectId: string, action: Action): Promise<AccessCheck> {
-  const access = await projectAccess(user.id, projectId);
+export function judgeProjectAccess(user: SessionUser, access: ProjectAccess | null, action: Action): AccessCheck {
   if (!access || !can(user, access.role, "project.view")) return { status: "not_found" };
   if (!can(user, access.role, action)) return { status: "forbidden", access };
   return { status: "ok", access };
+}
+
+export async function checkProjectAccess(user: SessionUser, projectId: string, action: Action): Promise<AccessCheck> {
+  return judgeProjectAccess(user, await projectAccess(user.id, projectId), action);
 }
 
 /**

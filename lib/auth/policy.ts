@@ -9,6 +9,7 @@ export const ACTIONS = [
   "project.edit",
   "traverse.record",
   "terminal.record",
+  "conditions.record",
   "traverse.submit",
   "traverse.review",
   "design.view",
@@ -21,8 +22,6 @@ export const ACTIONS = [
   "members.invite",
   "supervisor.sign",
   "photo.add",
-  "instrument.view",
-  "instrument.edit",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -33,9 +32,12 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "project.edit": ["engineer"],
   "traverse.record": ["technician"],
   "terminal.record": ["technician"],
+  /** The operating conditions readings are taken under: recorded by those who take the readings. */
+  "conditions.record": ["technician"],
   "traverse.submit": ["technician"],
   "traverse.review": ["commissioning_agent"],
-  "design.view": ["technician", "commissioning_agent", "engineer"],
+  // Owners read design against measured: it is what their closeout report shows them.
+  "design.view": ALL,
   "design.edit": ["engineer"],
   "deviation.accept": ["engineer"],
   "report.issue": ["commissioning_agent"],
@@ -48,9 +50,6 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   // Only the designated supervisor signs; the handler also checks it is them.
   "supervisor.sign": ["technician"],
   "photo.add": ["technician"],
-  // The instrument register is the organisation's: these are asked of any project role the user holds.
-  "instrument.view": ALL,
-  "instrument.edit": ["technician", "engineer"],
 };
 
 /** Site-wide administrators set projects up (settings, design, people) and may look at everything, but take no readings and sign nothing. */
@@ -63,8 +62,6 @@ const ADMIN_ACTIONS: ReadonlySet<Action> = new Set([
   "members.manage",
   "members.view",
   "members.invite",
-  "instrument.view",
-  "instrument.edit",
 ]);
 
 export interface Actor {
@@ -76,9 +73,12 @@ export function can(actor: Actor, role: MemberRole | null, action: Action): bool
   return actor.isAdmin && ADMIN_ACTIONS.has(action);
 }
 
-/** Register-wide actions (the instrument register): allowed when any of the user's project roles allows it. */
-export function canInRegister(actor: Actor, roles: readonly MemberRole[], action: Action): boolean {
-  return actor.isAdmin ? ADMIN_ACTIONS.has(action) : roles.some((role) => POLICY[action].includes(role));
+/**
+ * The instrument register is deployment-wide, not a project's: it is kept by the people who carry the
+ * instruments (a technician on at least one project) and by site administrators. Every signed-in user may read it.
+ */
+export function canKeepInstrumentRegister(actor: Actor, roles: readonly (MemberRole | null)[]): boolean {
+  return actor.isAdmin || roles.includes("technician");
 }
 
 export const ROLE_LABELS: Record<MemberRole, string> = {
@@ -86,4 +86,53 @@ export const ROLE_LABELS: Record<MemberRole, string> = {
   commissioning_agent: "Commissioning agent",
   engineer: "Engineer",
   owner: "Owner",
+};
+
+/**
+ * API routes that act on no project, each with who may call it. Every other route under app/api
+ * declares `project: { param, action }` in defineRoute; tests/auth/routes.test.ts walks app/api and
+ * fails on a route that does neither, or on one missing from this list. Keys: "METHOD /api/path"
+ * with the folder names as written ([param] and [...rest] included).
+ */
+export const ROUTES_OUTSIDE_PROJECTS: Record<string, "public" | "signed-in"> = {
+  "GET /api/health": "public",
+  "POST /api/auth/sign-in": "public",
+  "POST /api/auth/sign-out": "public",
+  "POST /api/auth/sign-out-everywhere": "signed-in",
+  "POST /api/auth/password": "signed-in",
+  "GET /api/auth/me": "signed-in",
+  "GET /api/v1/projects": "signed-in",
+  // Site administrators and engineers of a project start projects; the handler checks which before reading the body.
+  "POST /api/v1/projects": "signed-in",
+  // The organisation's instrument register: read by everyone signed in; kept by technicians and site administrators (checked in the handler).
+  "GET /api/v1/instruments": "signed-in",
+  "POST /api/v1/instruments": "signed-in",
+  "GET /api/v1/instruments/[instrumentId]": "signed-in",
+  "PATCH /api/v1/instruments/[instrumentId]": "signed-in",
+  "DELETE /api/v1/instruments/[instrumentId]": "signed-in",
+  // Calibration certificates belong to the register: read by everyone signed in, attached by its keepers (checked in the handler).
+  "GET /api/v1/instruments/[instrumentId]/certificate": "signed-in",
+  "POST /api/v1/instruments/[instrumentId]/certificate": "signed-in",
+  // Each user's own notifications.
+  "GET /api/v1/notifications": "signed-in",
+  "POST /api/v1/notifications/read": "signed-in",
+  // Every e-mail written: site administrators only (checked in the handler).
+  "GET /api/v1/admin/outbox": "signed-in",
+  // Invitation links are used before an account exists: the token is the credential.
+  "GET /api/v1/invitations/[token]": "public",
+  "POST /api/v1/invitations/[token]/accept": "public",
+  // Anyone may check an issued report, with the deployment's public key and a report's signature.
+  "POST /api/v1/reports/verify": "public",
+  "GET /api/v1/reports/public-key": "public",
+  "GET /api/v1/reports/[code]/signature": "public",
+  // The API description holds no data.
+  "GET /api/v1/openapi.json": "public",
+  "PATCH /api/v1/me": "signed-in",
+  "POST /api/v1/calc/[command]": "signed-in",
+  // Unknown API paths answer a JSON 404 to anyone.
+  "GET /api/[...path]": "public",
+  "POST /api/[...path]": "public",
+  "PUT /api/[...path]": "public",
+  "PATCH /api/[...path]": "public",
+  "DELETE /api/[...path]": "public",
 };

@@ -12,7 +12,7 @@ import { sql } from "drizzle-orm";
 import { defaultDataDir, openDatabase } from "@/db/client";
 import { users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
-import { newPasswordSchema } from "@/lib/validation/people";
+import { newPasswordSchema } from "@/lib/validation/auth";
 import { z } from "zod";
 
 function argument(name: string): string | undefined {

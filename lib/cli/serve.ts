@@ -15,7 +15,8 @@ import { spawn, spawnSync } from "node:child_process";
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
-import { acquireDataDirLock, defaultDataDir } from "@/db/client";
+import { defaultDataDir } from "@/db/client";
+import { LOCK_DIR_ENV, LOCK_FD_ENV, lockDataDir, type DataDirLock } from "@/db/lock";
 import { MissingSecretError, resolveSessionSecret, SECRET_ENV } from "@/lib/auth/secret";
 import { storageConfigFromEnv } from "@/lib/server/storage";
 import { launcherEnv } from "./launcher-env";
@@ -90,14 +91,19 @@ async function main() {
   const env = launcherEnv({ demo, port, env: process.env });
   const dataDir = defaultDataDir();
 
-  // The server opens the data directory; refuse now rather than let two processes share it.
+  // Take the data directory now and keep it through the build until the server exits: the server
+  // inherits the locked descriptor (fd 3), so no `npm run dev` or `db:seed` can slip in between.
+  let lock: DataDirLock | null = null;
   if (!env.DATABASE_URL && !dataDir.startsWith("memory://")) {
     try {
-      acquireDataDirLock(dataDir)();
+      lock = lockDataDir(dataDir);
     } catch (err) {
       fail((err as Error).message);
     }
+    if (lock.fd !== null) Object.assign(env, { [LOCK_FD_ENV]: "3", [LOCK_DIR_ENV]: path.resolve(dataDir) });
   }
+  const releaseLock = () => lock?.release();
+  process.on("exit", releaseLock);
 
   try {
     // The secret rules read the mode from the environment, as the server will.
@@ -119,10 +125,16 @@ async function main() {
     if (!demo) console.log("For several app servers, or backups apart from this machine, set S3_ENDPOINT, S3_BUCKET and credentials instead.");
   }
 
-  const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: "inherit", env });
+  // The server closes the database itself on SIGTERM/SIGINT (instrumentation.ts), instead of the
+  // framework's own handler exiting first.
+  env.NEXT_MANUAL_SIG_HANDLE = "1";
+  const child = spawn(nextBin, ["start", "-p", String(port)], { stdio: ["inherit", "inherit", "inherit", lock?.fd ?? "ignore"], env });
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => child.kill(signal));
-  child.on("exit", (code) => {
-    void (store?.stop() ?? Promise.resolve()).finally(() => process.exit(code ?? 0));
+  child.on("exit", (code, signal) => {
+    releaseLock();
+    const status = code ?? (signal ? 128 + (signal === "SIGINT" ? 2 : signal === "SIGKILL" ? 9 : 15) : 0);
+    // The object store outlives the server only long enough to close cleanly.
+    void (store?.stop() ?? Promise.resolve()).finally(() => process.exit(status));
   });
 
   await waitForHealth(child);

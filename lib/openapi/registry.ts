@@ -36,7 +36,8 @@ const ERROR_DESCRIPTIONS: Record<number, string> = {
   409: "Conflicts with the current state (e.g. a stale version); the body says what the state is.",
   413: "The body is larger than this route accepts.",
   415: "The body is not of the content type this route takes.",
-  429: "Too many attempts; wait and try again.",
+  429: "Too many attempts; wait and try again (see Retry-After).",
+  503: "Busy or unavailable for a moment; try again (see Retry-After).",
 };
 
 const errorBody = {
@@ -98,7 +99,7 @@ export function buildOpenApiDocument(operations: readonly Operation[], info: { v
         "Every error is {\"error\":{\"message\",\"fields?\"}}.",
     },
     components: {
-      securitySchemes: { session: { type: "apiKey", in: "cookie", name: "airtally_session", description: "Set by POST /api/auth/sign-in." } },
+      securitySchemes: { session: { type: "apiKey", in: "cookie", name: "airtally_session", description: "Set by POST /api/auth/sign-in (named __Host-airtally_session when served over HTTPS)." } },
       schemas: { Error: errorBody },
     },
     security: [{ session: [] }],

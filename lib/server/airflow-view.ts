@@ -37,8 +37,11 @@ export function reduceStoredTraverse(traverse: StoredTraverse, section: DuctSect
       portOffsetM: traverse.portOffsetMm / 1000,
       air: {
         dryBulbC: traverse.dryBulbC,
-        ...(traverse.barometricPa !== null ? { barometricPa: traverse.barometricPa } : { altitudeM: project.altitudeM }),
-        staticPa: traverse.staticPa ?? 0,
+        // The project's altitude always goes with a measured barometer, so a sea-level-corrected reading is caught.
+        altitudeM: project.altitudeM,
+        ...(traverse.barometricPa !== null ? { barometricPa: traverse.barometricPa } : {}),
+        // Not recorded: the engine assumes 0 Pa and says so in its warnings and uncertainty.
+        staticPa: traverse.staticPa ?? undefined,
         ...(traverse.relativeHumidityPct !== null
           ? { relativeHumidityPct: traverse.relativeHumidityPct }
           : { wetBulbC: traverse.wetBulbC ?? undefined }),

@@ -7,7 +7,8 @@ import { NextResponse } from "next/server";
 import { getDb } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import { isUuid } from "@/db/queries/projects";
-import { getCurrentCertificate, getInstrument } from "@/db/queries/uploads";
+import { getInstrument } from "@/db/queries/instruments";
+import { getCurrentCertificate } from "@/db/queries/uploads";
 import { instrumentCertificates } from "@/db/schema";
 import { withSlot } from "./limits";
 import { readMultipartFile } from "./multipart";
@@ -23,7 +24,7 @@ function view(c: typeof instrumentCertificates.$inferSelect) {
 }
 
 export async function uploadCertificate({ req, instrumentId, userId }: { req: Request; instrumentId: string; userId: string }): Promise<Response> {
-  if (!isUuid(instrumentId) || !(await getInstrument({ instrumentId }))) return jsonError(404, NO_INSTRUMENT);
+  if (!isUuid(instrumentId) || !(await getInstrument({ id: instrumentId }))) return jsonError(404, NO_INSTRUMENT);
   return withSlot("uploads", 4, () => receive({ req, instrumentId, userId }), () => jsonError(503, "Several uploads are being processed right now; try again in a moment."));
 }
 
@@ -68,7 +69,7 @@ async function receive({ req, instrumentId, userId }: { req: Request; instrument
 }
 
 export async function downloadCertificate({ instrumentId, thumb }: { instrumentId: string; thumb: boolean }): Promise<Response> {
-  if (!isUuid(instrumentId) || !(await getInstrument({ instrumentId }))) return jsonError(404, NO_INSTRUMENT);
+  if (!isUuid(instrumentId) || !(await getInstrument({ id: instrumentId }))) return jsonError(404, NO_INSTRUMENT);
   const cert = await getCurrentCertificate({ instrumentId });
   if (!cert) return jsonError(404, "This instrument has no calibration certificate on file yet.");
   if (thumb && !cert.thumbKey) return jsonError(404, "This certificate is a PDF and has no thumbnail; download the file itself.");

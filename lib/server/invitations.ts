@@ -19,12 +19,16 @@ import { notify } from "./notify";
 import { publicUrl } from "./public-url";
 
 export const INVITATION_HOURS = 72;
+/** Public invitation look-ups and uses per client address and minute (lib/server/limits.ts). */
+export const INVITATION_REQUESTS_PER_MINUTE = 60;
 
 export class PeopleError extends Error {
   constructor(
-    readonly status: 400 | 403 | 404 | 409 | 410,
+    readonly status: 400 | 403 | 404 | 409 | 410 | 429 | 503,
     message: string,
     readonly fields?: Record<string, string>,
+    /** Extra answer headers, such as Retry-After. */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }
@@ -155,7 +159,7 @@ export async function revokeInvitation({ projectId, invitationId, by }: { projec
  * Uses an invitation: creates the account with the chosen name and password and the membership, and
  * marks the invitation used, all or nothing. Only one of two simultaneous uses can succeed.
  */
-export async function acceptInvitation({ token, name, password }: { token: string; name: string; password: string }): Promise<{ userId: string; projectId: string }> {
+export async function acceptInvitation({ token, name, password }: { token: string; name: string; password: string }): Promise<{ userId: string; email: string; sessionVersion: number; projectId: string }> {
   const found = await findInvitation(token);
   if (!found.ok) throw new PeopleError(found.status, found.message);
   const inv = found.invitation;
@@ -165,7 +169,7 @@ export async function acceptInvitation({ token, name, password }: { token: strin
   // Hashing is deliberately slow; it runs only for a genuine, open invitation.
   const passwordHash = await hashPassword(password);
   const db = await getDb();
-  const userId = await db.transaction(async (tx) => {
+  const created = await db.transaction(async (tx) => {
     const claimed = await tx
       .update(invitations)
       .set({ acceptedAt: new Date() })
@@ -174,11 +178,14 @@ export async function acceptInvitation({ token, name, password }: { token: strin
     if (claimed.length === 0) throw new PeopleError(410, "This invitation has already been used. Sign in with the password chosen then, or ask for a new invitation.");
     const [taken] = await tx.select({ id: users.id }).from(users).where(eq(sql`lower(${users.email})`, inv.email.toLowerCase()));
     if (taken) throw new PeopleError(409, "An account with this e-mail address exists already: sign in with it, and ask to be added to the project.");
-    const [user] = await tx.insert(users).values({ email: inv.email, name: name.trim(), passwordHash }).returning({ id: users.id });
+    const [user] = await tx
+      .insert(users)
+      .values({ email: inv.email, name: name.trim(), passwordHash })
+      .returning({ id: users.id, email: users.email, sessionVersion: users.sessionVersion });
     await tx.insert(projectMembers).values({ projectId: inv.projectId, userId: user!.id, role: inv.role });
     await tx.update(invitations).set({ acceptedBy: user!.id }).where(eq(invitations.id, inv.id));
-    return user!.id;
+    return user!;
   });
-  await recordAudit({ userId, projectId: inv.projectId, action: "invitation.accepted", entityType: "invitation", entityId: inv.id, detail: { email: inv.email, role: inv.role } });
-  return { userId, projectId: inv.projectId };
+  await recordAudit({ userId: created.id, actorEmail: created.email, projectId: inv.projectId, action: "invitation.accepted", entityType: "invitation", entityId: inv.id, detail: { email: inv.email, role: inv.role } });
+  return { userId: created.id, email: created.email, sessionVersion: created.sessionVersion, projectId: inv.projectId };
 }

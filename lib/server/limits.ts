@@ -1,6 +1,7 @@
 /**
  * Two small guards for expensive or public routes, per server process: a cap on how many run at
- * once (memory stays bounded however many arrive), and a fixed-window count per client address.
+ * once (memory stays bounded however many arrive), and a fixed-window count per client address
+ * (`clientAddress` from ./request, the same address sign-in throttling counts).
  */
 const running = new Map<string, number>();
 
@@ -31,10 +32,4 @@ export function overLimit(name: string, client: string, limit: number, windowMs:
   }
   w.count += 1;
   return w.count > limit;
-}
-
-/** The client's address as the nearest proxy reports it (first X-Forwarded-For hop), or "direct". */
-export function clientAddress(req: Request): string {
-  const forwarded = req.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return (forwarded || req.headers.get("x-real-ip") || "direct").slice(0, 64);
 }

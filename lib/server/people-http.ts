@@ -6,7 +6,7 @@ export async function answerPeople(work: () => Promise<Response>): Promise<Respo
   try {
     return await work();
   } catch (err) {
-    if (err instanceof PeopleError) return jsonError(err.status, err.message, err.fields);
+    if (err instanceof PeopleError) return jsonError(err.status, err.message, err.fields, err.headers);
     throw err;
   }
 }

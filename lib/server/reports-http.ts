@@ -21,7 +21,7 @@ export function signatureResponse(report: Report): Response {
       "content-type": "application/octet-stream",
       "content-length": String(bytes.length),
       "content-disposition": `attachment; filename="${report.fileName.replace(/\.pdf$/, "")}.sig"`,
-      "cache-control": "public, max-age=86400, immutable",
+      "cache-control": "no-store",
       "x-content-type-options": "nosniff",
     },
   });

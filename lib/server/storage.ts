@@ -136,7 +136,8 @@ export async function listObjectKeys(prefix: string, max = 1000): Promise<string
 
 /**
  * An HTTP answer that streams a stored object through the app (after the caller checked access):
- * the stored type, never sniffed by the browser, private to the signed-in user's cache.
+ * the stored type, never sniffed by the browser, and kept by no cache (as every API answer: a shared
+ * tablet must not keep another person's project files).
  */
 export function objectResponse(obj: StoredObject, { contentType, fileName, download = false }: { contentType: string; fileName: string; download?: boolean }): Response {
   const safeName = fileName.replace(/[^\w.\- ]+/g, "_").slice(0, 120) || "file";
@@ -144,7 +145,7 @@ export function objectResponse(obj: StoredObject, { contentType, fileName, downl
     "content-type": contentType,
     "content-disposition": `${download ? "attachment" : "inline"}; filename="${safeName}"; filename*=UTF-8''${encodeURIComponent(fileName.slice(0, 120))}`,
     "x-content-type-options": "nosniff",
-    "cache-control": "private, max-age=300",
+    "cache-control": "no-store",
     "content-security-policy": "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox",
   };
   if (obj.contentLength !== undefined) headers["content-length"] = String(obj.contentLength);

@@ -6,10 +6,11 @@
  */
 import { desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { countFailedSignIns, FAILED_SIGN_IN, recordAudit } from "@/db/queries/audit";
+import { AUDIT, recordAudit } from "@/db/queries/audit";
 import { getMember } from "@/db/queries/members";
+import { beginSignInAttempt, finishSignInAttempt } from "@/db/queries/sign-in-attempts";
 import { projects, projectSupervisors, supervisorSignatures, users, type SupervisorSignature } from "@/db/schema";
-import { verifyPassword } from "@/lib/auth/password";
+import { PasswordHashingBusyError, verifyPassword } from "@/lib/auth/password";
 import { PeopleError } from "./invitations";
 
 /** The words the supervisor signs, with their name and certification filled in. */
@@ -67,29 +68,49 @@ export async function clearSupervisor({ projectId, by }: { projectId: string; by
   await recordAudit({ userId: by.id, projectId, action: "supervisor.cleared", entityType: "user", entityId: removed[0]!.userId, detail: {} });
 }
 
-const SIGN_WINDOW_MINUTES = 15;
-const MAX_FAILED = 10;
-
-/** The designated supervisor signs the statement, confirming with their password. */
-export async function signCertification({ projectId, user, password }: { projectId: string; user: { id: string; email: string; name: string }; password: string }): Promise<SupervisorSignature> {
+/**
+ * The designated supervisor signs the statement, confirming with their password. Password checks
+ * count with sign-ins (db/queries/sign-in-attempts.ts): the same per-e-mail and per-address backoff,
+ * so this form cannot be used to guess a password faster than the sign-in form.
+ */
+export async function signCertification({ projectId, user, password, client }: { projectId: string; user: { id: string; email: string; name: string }; password: string; client: string }): Promise<SupervisorSignature> {
   const state = await getSupervisorState({ projectId });
   if (!state.designation || !state.statement) throw new PeopleError(409, "No TAB supervisor is designated for this project yet.");
   if (state.designation.userId !== user.id) throw new PeopleError(403, `Only the project's designated TAB supervisor (${state.designation.name}) can sign this statement.`);
   const email = user.email.toLowerCase();
-  if ((await countFailedSignIns({ email, since: new Date(Date.now() - SIGN_WINDOW_MINUTES * 60_000) })) >= MAX_FAILED) {
-    throw new PeopleError(403, `Too many wrong passwords. Wait ${SIGN_WINDOW_MINUTES} minutes.`);
+  const ticket = await beginSignInAttempt({ email, client });
+  if (ticket.retryAfterSeconds > 0) {
+    const s = ticket.retryAfterSeconds;
+    throw new PeopleError(429, `Too many wrong passwords. Wait ${s} second${s === 1 ? "" : "s"} and try again.`, undefined, { "Retry-After": String(s) });
   }
   const db = await getDb();
   const [row] = await db.select({ hash: users.passwordHash }).from(users).where(eq(users.id, user.id));
-  if (!(await verifyPassword(row?.hash ?? null, password))) {
-    await recordAudit({ userId: user.id, projectId, action: FAILED_SIGN_IN, entityType: "user", entityId: user.id, detail: { email, purpose: "supervisor.sign" } });
+  let valid: boolean;
+  try {
+    valid = await verifyPassword(row?.hash ?? null, password);
+  } catch (err) {
+    await finishSignInAttempt({ id: ticket.id, outcome: "failed" });
+    if (err instanceof PasswordHashingBusyError) throw new PeopleError(503, err.message, undefined, { "Retry-After": "5" });
+    throw err;
+  }
+  if (!valid) {
+    await finishSignInAttempt({ id: ticket.id, outcome: "failed" });
+    await recordAudit({ userId: user.id, actorEmail: email, projectId, action: AUDIT.signInFailed, entityType: "user", entityId: user.id, detail: { email, purpose: "supervisor.sign" } });
     throw new PeopleError(400, "That is not your password; the statement was not signed.", { password: "Wrong password." });
   }
+  await finishSignInAttempt({ id: ticket.id, outcome: "succeeded" });
   const [signature] = await db
     .insert(supervisorSignatures)
     .values({ projectId, userId: user.id, name: state.designation.name, certifyingBody: state.designation.certifyingBody, certificateNumber: state.designation.certificateNumber, statement: state.statement })
     .returning();
-  await recordAudit({ userId: user.id, projectId, action: "supervisor.signed", entityType: "supervisor_signature", entityId: signature!.id, detail: { certifyingBody: signature!.certifyingBody, certificateNumber: signature!.certificateNumber, statement: signature!.statement } });
+  await recordAudit({
+    userId: user.id,
+    actorEmail: user.email,
+    projectId,
+    action: "supervisor.signed",
+    entityType: "supervisor_signature",
+    entityId: signature!.id,
+    detail: { certifyingBody: signature!.certifyingBody, certificateNumber: signature!.certificateNumber, statement: signature!.statement },
+  });
   return signature!;
 }
-

@@ -6,6 +6,13 @@
 import { z } from "zod";
 import { airConditionErrors } from "@/lib/airflow/air";
 import { layoutCountProblem } from "@/lib/airflow/layout";
+import { MIN_FLOW_M3_S, MIN_MASS_FLOW_KG_S } from "@/lib/airflow/network";
+
+/** Size limits of the calculation inputs, far beyond practice; counts are checked before any value. */
+export const MAX_LINES = 100;
+export const MAX_POINTS_PER_LINE = 100;
+export const MAX_NETWORK_NODES = 5_000;
+export const MAX_ID_CHARS = 200;
 
 /** A value as a technician would recognise it in an error message. */
 export function describeValue(value: unknown): string {
@@ -57,39 +64,64 @@ const topLevel = (command: string) => ({
   error: (iss: { input?: unknown }) => `must be a JSON object with the ${command} fields; got ${describeValue(iss.input)}`,
 });
 
-export const layoutInputSchema = z.strictObject(layoutFields, topLevel("layout")).superRefine((input, ctx) => {
+/** The error of a nested object given something else: names what it should hold. */
+const objectOf = (what: string) => ({
+  error: (iss: { input?: unknown }) => `must be an object with ${what}; got ${describeValue(iss.input)}`,
+});
+
+/** Probe head outside diameter, mm: judges which points near a wall the probe can reach (default 8 mm, common practice). */
+const headDiameterSchema = ranged(1, 50, "mm (outside diameter of the probe head)");
+
+/** The probe: its coefficient C (1.0 for a standard pitot-static tube, common practice) and head size. */
+export const probeSchema = z.strictObject(
+  { coefficient: ranged(0.5, 1.2, "").optional(), head_diameter_mm: headDiameterSchema.optional() },
+  objectOf("coefficient and/or head_diameter_mm"),
+);
+
+// A layout uses only the head size; the same probe object as a traverse's is accepted.
+export const layoutInputSchema = z.strictObject({ ...layoutFields, probe: probeSchema.optional() }, topLevel("layout")).superRefine((input, ctx) => {
   const problem = layoutCountProblem(input.duct.shape, input.method, { lines: input.lines, pointsPerLine: input.points_per_line });
   if (problem) ctx.addIssue({ code: "custom", path: [problem.field], message: problem.message });
 });
 export type LayoutInputJson = z.infer<typeof layoutInputSchema>;
 
-/** Air at the plane. Exactly one of barometric_pa / altitude_m, exactly one of relative_humidity_pct / wet_bulb_c. */
+const STATIC_ALLOWED = "the duct static pressure at the plane, a number from -10000 to 10000 Pa (gauge), or null if it was not measured (0 Pa is then assumed and the result says so)";
+
+/** Duct static pressure: required, so that leaving it out is a decision; null means not measured. */
+const staticSchema = z.custom<number | null>(
+  (v) => v === null || (typeof v === "number" && Number.isFinite(v) && v >= -10_000 && v <= 10_000),
+  { error: (iss) => (iss.input === undefined ? `is needed: give ${STATIC_ALLOWED}; got nothing` : `must be ${STATIC_ALLOWED}; got ${describeValue(iss.input)}`) },
+);
+
+/**
+ * Air at the plane. A measured barometric_pa and/or the site altitude_m (both is best: the altitude then
+ * checks the barometer); exactly one of relative_humidity_pct / wet_bulb_c; static_pa or null.
+ */
 export const airSchema = z
   .strictObject(
     {
       dry_bulb_c: ranged(-40, 120, "°C"),
       barometric_pa: ranged(50_000, 110_000, "Pa").optional(),
       altitude_m: ranged(-500, 5_000, "m").optional(),
-      // Required: 0 if not measured, but then knowingly (100 Pa is 0.1 % in density).
-      static_pa: ranged(-10_000, 10_000, "Pa (duct static, gauge; 0 if not measured)"),
+      static_pa: staticSchema,
       relative_humidity_pct: ranged(0, 100, "%").optional(),
       wet_bulb_c: ranged(-40, 120, "°C").optional(),
     },
-    { error: (iss) => `must be an object with dry_bulb_c, barometric_pa or altitude_m, static_pa, and relative_humidity_pct or wet_bulb_c; got ${describeValue(iss.input)}` },
+    { error: (iss) => `must be an object with dry_bulb_c, barometric_pa and/or altitude_m, static_pa, and relative_humidity_pct or wet_bulb_c; got ${describeValue(iss.input)}` },
   )
   .superRefine((air, ctx) => {
-    const hasBaro = air.barometric_pa !== undefined;
-    if (hasBaro === (air.altitude_m !== undefined))
-      ctx.addIssue({ code: "custom", path: ["barometric_pa"], message: hasBaro ? "give barometric_pa or altitude_m, not both" : "give the measured barometric_pa (Pa) or the site altitude_m (m); got neither" });
+    const hasBaro = air.barometric_pa !== undefined || air.altitude_m !== undefined;
+    if (!hasBaro)
+      ctx.addIssue({ code: "custom", path: ["barometric_pa"], message: "give the measured barometric_pa (Pa) or the site altitude_m (m), or both; got neither" });
     const hasRh = air.relative_humidity_pct !== undefined;
     if (hasRh === (air.wet_bulb_c !== undefined))
       ctx.addIssue({ code: "custom", path: ["relative_humidity_pct"], message: hasRh ? "give relative_humidity_pct or wet_bulb_c, not both" : "give relative_humidity_pct (%) or wet_bulb_c (°C); got neither" });
     if (air.wet_bulb_c !== undefined && air.wet_bulb_c > air.dry_bulb_c)
       ctx.addIssue({ code: "custom", path: ["wet_bulb_c"], message: `must be at or below the dry-bulb ${air.dry_bulb_c} °C; got ${air.wet_bulb_c}` });
-    if (hasBaro !== (air.altitude_m !== undefined) && hasRh !== (air.wet_bulb_c !== undefined)) {
+    if (hasBaro && hasRh !== (air.wet_bulb_c !== undefined)) {
       // Individually valid values that no real air can have together (vapour pressure above total pressure).
       const impossible = airConditionErrors(
-        { dryBulbC: air.dry_bulb_c, barometricPa: air.barometric_pa, altitudeM: air.altitude_m, staticPa: air.static_pa, relativeHumidityPct: air.relative_humidity_pct, wetBulbC: air.wet_bulb_c },
+        { dryBulbC: air.dry_bulb_c, barometricPa: air.barometric_pa, altitudeM: air.altitude_m, staticPa: air.static_pa ?? undefined, relativeHumidityPct: air.relative_humidity_pct, wetBulbC: air.wet_bulb_c },
         "",
       );
       for (const [path, message] of Object.entries(impossible)) ctx.addIssue({ code: "custom", path: path.split("."), message });
@@ -110,8 +142,9 @@ export const instrumentSchema = z.strictObject({
   humidity_accuracy_pct: ranged(0, 50, "% RH").optional(),
   velocity_accuracy_pct: ranged(0, 50, "% of reading").optional(),
   velocity_floor_m_s: ranged(0, 5, "m/s").optional(),
-  repeatability_pct: ranged(0, 50, "% of velocity").optional(),
-});
+  repeatability_pct: ranged(0, 50, "% of velocity (one standard deviation)").optional(),
+  standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³ (the density the anemometer refers standard velocity to)").optional(),
+}, objectOf("instrument accuracies such as pressure_accuracy_pct and dimension_accuracy_mm"));
 
 const READING_RANGE = {
   velocity_pressure: { min: -500, max: 5_000, what: "a velocity pressure", unit: "Pa" },
@@ -134,13 +167,19 @@ export const traverseInputSchema = z
   .strictObject({
     ...layoutFields,
     air: airSchema,
-    probe: z.strictObject({ coefficient: ranged(0.5, 1.2, "") }).optional(),
+    probe: probeSchema.optional(),
     standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³").optional(),
     readings_kind: readingsKindSchema.optional(),
     instrument: instrumentSchema.optional(),
-    readings: z.array(z.array(readingSchema, { error: (iss) => `must be a list of readings along one line; got ${describeValue(iss.input)}` }), {
-      error: (iss) => `must be a list of lines, each a list of readings; got ${describeValue(iss.input)}`,
-    }).min(1, { error: "must hold at least one line of readings; got none" }),
+    readings: z
+      .array(
+        z
+          .array(readingSchema, { error: (iss) => `must be a list of readings along one line; got ${describeValue(iss.input)}` })
+          .max(MAX_POINTS_PER_LINE, { error: (iss) => `has ${(iss.input as unknown[]).length} readings; a line holds at most ${MAX_POINTS_PER_LINE}` }),
+        { error: (iss) => `must be a list of lines, each a list of readings; got ${describeValue(iss.input)}` },
+      )
+      .min(1, { error: "must hold at least one line of readings; got none" })
+      .max(MAX_LINES, { error: (iss) => `has ${(iss.input as unknown[]).length} lines; a traverse has at most ${MAX_LINES}` }),
   }, topLevel("traverse"))
   .superRefine((input, ctx) => {
     const range = READING_RANGE[input.readings_kind ?? "velocity_pressure"];
@@ -171,15 +210,26 @@ export const traverseInputSchema = z
   });
 export type TraverseInputJson = z.infer<typeof traverseInputSchema>;
 
+/** A flow must be 0 or at least `min`: smaller non-zero values are typing or unit errors (checked in the node's refinement). */
+const tinyFlowMessage = (value: number, unit: string, min: number) =>
+  `must be 0 (no flow) or from ${min} to 10000 ${unit}; got ${value}, too small to be a measured flow`;
+
 const nodeSchema = z
   .strictObject({
-    id: z.string({ error: (iss) => `must be the section's id, a text; got ${describeValue(iss.input)}` }).min(1, { error: "must not be empty" }).max(200, { error: "must be at most 200 characters" }),
+    id: z.string({ error: (iss) => `must be the section's id, a text; got ${describeValue(iss.input)}` }).min(1, { error: "must not be empty" }).max(MAX_ID_CHARS, { error: (iss) => `must be at most ${MAX_ID_CHARS} characters; got ${(iss.input as string).length}` }),
     parent: z.string({ error: (iss) => `must be the id of the upstream section, or null for a root; got ${describeValue(iss.input)}` }).nullable(),
     mass_flow_kg_s: ranged(0, 10_000, "kg/s").optional(),
     flow_m3_s: ranged(0, 10_000, "m³/s").optional(),
     density_kg_m3: ranged(0.3, 2.0, "kg/m³").optional(),
-  })
+  }, objectOf("id, parent and mass_flow_kg_s (or flow_m3_s with density_kg_m3)"))
   .superRefine((node, ctx) => {
+    // One refinement per node for these checks keeps a 5 000-section network quick to validate.
+    if (node.parent !== null && node.parent.length > MAX_ID_CHARS)
+      ctx.addIssue({ code: "custom", path: ["parent"], message: `must be at most ${MAX_ID_CHARS} characters (an id); got ${node.parent.length}` });
+    if (node.mass_flow_kg_s !== undefined && node.mass_flow_kg_s > 0 && node.mass_flow_kg_s < MIN_MASS_FLOW_KG_S)
+      ctx.addIssue({ code: "custom", path: ["mass_flow_kg_s"], message: tinyFlowMessage(node.mass_flow_kg_s, "kg/s", MIN_MASS_FLOW_KG_S) });
+    if (node.flow_m3_s !== undefined && node.flow_m3_s > 0 && node.flow_m3_s < MIN_FLOW_M3_S)
+      ctx.addIssue({ code: "custom", path: ["flow_m3_s"], message: tinyFlowMessage(node.flow_m3_s, "m³/s", MIN_FLOW_M3_S) });
     const hasMass = node.mass_flow_kg_s !== undefined;
     const hasVolume = node.flow_m3_s !== undefined || node.density_kg_m3 !== undefined;
     if (hasMass && hasVolume) ctx.addIssue({ code: "custom", path: ["mass_flow_kg_s"], message: "give mass_flow_kg_s, or flow_m3_s with density_kg_m3, not both" });
@@ -190,8 +240,12 @@ const nodeSchema = z
 
 export const networkInputSchema = z
   .strictObject({
-    nodes: z.array(nodeSchema, { error: (iss) => `must be a list of duct sections; got ${describeValue(iss.input)}` }).min(1, { error: "must hold at least one section; got none" }),
+    nodes: z
+      .array(nodeSchema, { error: (iss) => `must be a list of duct sections; got ${describeValue(iss.input)}` })
+      .min(1, { error: "must hold at least one section; got none" })
+      .max(MAX_NETWORK_NODES, { error: (iss) => `has ${(iss.input as unknown[]).length} sections; at most ${MAX_NETWORK_NODES} are allowed` }),
     tolerance_pct: ranged(0, 100, "%").optional(),
+    standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³").optional(),
   }, topLevel("network"))
   .superRefine((input, ctx) => {
     const ids = new Map<string, number>();
@@ -206,3 +260,33 @@ export const networkInputSchema = z
     });
   });
 export type NetworkInputJson = z.infer<typeof networkInputSchema>;
+
+const plural = (n: number, one: string, many: string) => `${n.toLocaleString("en-US")} ${n === 1 ? one : many}`;
+
+/**
+ * Counts checked before any value is looked at, so an absurdly large input is refused at once:
+ * readings at most MAX_LINES lines of MAX_POINTS_PER_LINE, networks at most MAX_NETWORK_NODES sections.
+ * Returns field errors, or null when the sizes are acceptable (or the shape is for the schema to judge).
+ */
+export function calcInputSizeProblems(command: string, input: unknown): Record<string, string> | null {
+  if (typeof input !== "object" || input === null || Array.isArray(input)) return null;
+  const fields: Record<string, string> = {};
+  if (command === "traverse") {
+    const readings = (input as { readings?: unknown }).readings;
+    if (Array.isArray(readings)) {
+      if (readings.length > MAX_LINES) {
+        fields.readings = `has ${plural(readings.length, "line", "lines")} of readings; a traverse has at most ${MAX_LINES} lines (split a larger plane into sections)`;
+      } else {
+        readings.forEach((row: unknown, k) => {
+          if (Array.isArray(row) && row.length > MAX_POINTS_PER_LINE)
+            fields[`readings.${k}`] = `has ${plural(row.length, "reading", "readings")}; a line holds at most ${MAX_POINTS_PER_LINE} points`;
+        });
+      }
+    }
+  } else if (command === "network") {
+    const nodes = (input as { nodes?: unknown }).nodes;
+    if (Array.isArray(nodes) && nodes.length > MAX_NETWORK_NODES)
+      fields.nodes = `has ${plural(nodes.length, "section", "sections")}; at most ${MAX_NETWORK_NODES.toLocaleString("en-US")} are allowed in one check (split the system)`;
+  }
+  return Object.keys(fields).length > 0 ? fields : null;
+}

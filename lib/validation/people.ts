@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { memberRole } from "@/db/schema";
+import { newPasswordSchema } from "./auth";
 
 const ROLE_WORDS = 'one of "technician", "commissioning_agent", "engineer", "owner"';
 export const roleSchema = z.enum(memberRole.enumValues, { error: `Choose a role: ${ROLE_WORDS}.` });
@@ -10,13 +11,6 @@ export const inviteSchema = z.object({ email, role: roleSchema }).strict();
 export type InviteInput = z.infer<typeof inviteSchema>;
 
 export const changeRoleSchema = z.object({ role: roleSchema }).strict();
-
-/** New passwords: long enough to resist guessing, bounded so hashing stays cheap (NIST SP 800-63B asks at least 8). */
-export const PASSWORD_MIN = 10;
-export const newPasswordSchema = z
-  .string({ error: "Choose a password." })
-  .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`)
-  .max(200, "Passwords are at most 200 characters.");
 
 export const acceptInvitationSchema = z
   .object({

@@ -82,6 +82,26 @@ describe("proportionalBalance", () => {
     ]);
   });
 
+  it("a uniformly low branch (fan at half speed) still takes its lowest terminal as the index: the floor is half the branch's median", () => {
+    // The ratios of the reference example (airflow-methods.md §6: 0.820, 0.950, 1.140, 1.092) at half the airflow.
+    const p = proportionalBalance([
+      { id: "T1", designM3S: 0.1, measuredM3S: 0.041 },
+      { id: "T2", designM3S: 0.1, measuredM3S: 0.0475 },
+      { id: "T3", designM3S: 0.15, measuredM3S: 0.0855 },
+      { id: "T4", designM3S: 0.12, measuredM3S: 0.0655 },
+    ]);
+    expect(p.branches[0]?.indexTerminal).toBe("T1");
+    expect(p.branches[0]?.steps.some((s) => s.role === "investigate")).toBe(false);
+    // An absolute floor can still be asked for.
+    expect(proportionalBalance([{ id: "a", designM3S: 1, measuredM3S: 0.41 }, { id: "b", designM3S: 1, measuredM3S: 0.47 }], { minIndexRatio: 0.45 }).branches[0]?.indexTerminal).toBe("b");
+  });
+
+  it("a terminal with no flow is never the index", () => {
+    const p = proportionalBalance([{ id: "a", designM3S: 1, measuredM3S: 0 }, { id: "b", designM3S: 1, measuredM3S: 0 }, { id: "c", designM3S: 1, measuredM3S: 0.5 }]);
+    expect(p.branches[0]?.indexTerminal).toBe("c");
+    expect(p.branches[0]?.steps.filter((s) => s.role === "investigate").map((s) => s.id)).toEqual(["a", "b"]);
+  });
+
   it("orders branches by their ratio, lowest (index branch) first", () => {
     const p = proportionalBalance([
       { id: "x1", branch: "east", designM3S: 1, measuredM3S: 1.1 },
@@ -104,7 +124,12 @@ describe("proportionalBalance", () => {
           const p = proportionalBalance(rows.map(([d, r], i) => ({ id: `t${i}`, designM3S: d, measuredM3S: d * r })));
           const steps = p.branches[0]?.steps ?? [];
           const index = steps.find((s) => s.role === "index");
-          expect(index?.ratio).toBeCloseTo(Math.min(...rows.map(([, r]) => r)), 9);
+          // The index is the lowest ratio not below half the branch's median (the rest go to investigation).
+          const sorted = rows.map(([, r]) => r).sort((a, b) => a - b);
+          const mid = Math.floor(sorted.length / 2);
+          const median = sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
+          expect(index?.ratio).toBeCloseTo(sorted.find((r) => r >= median / 2)!, 9);
+          for (const s of steps.filter((x) => x.role === "investigate")) expect(s.ratio).toBeLessThan(median / 2);
           for (const s of steps.filter((x) => x.role === "throttle")) expect((s.targetM3S as number) / s.designM3S).toBeCloseTo(index?.ratio as number, 9);
         },
       ),

@@ -44,6 +44,19 @@ describe("log-linear round positions", () => {
     const layout = buildLayout({ duct: BIG_ROUND, method: "log-linear", pointsPerLine: Number(n), lines: 2 });
     fractionsOf(layout, 10).forEach((f, i) => expect(f).toBeCloseTo(table[i] ?? NaN, 9));
   });
+
+  it.each([6, 8, 10])("%s points: the engine's positions integrate the log law exactly, an independent check of the table (derived)", (n) => {
+    // The log-linear rule places points so that equal weights integrate u = a + b·ln(y/R) over the disc without
+    // error. Exact area mean of ln(y/R), y = R − r: ∫₀¹ ln(1 − ρ)·2ρ dρ = −3/2 (closed form). The printed
+    // positions carry three decimals, which moves the sum by at most ±0.005 here (Σ 0.0005·D/y over the points).
+    const layout = buildLayout({ duct: BIG_ROUND, method: "log-linear", pointsPerLine: n, lines: 2 });
+    const ys = fractionsOf(layout, 10).map((f) => 2 * Math.min(f, 1 - f)); // y/R from the nearer wall
+    const mean = ys.reduce((a, y) => a + Math.log(y), 0) / ys.length;
+    expect(Math.abs(mean - -1.5)).toBeLessThanOrEqual(0.005);
+    // The equal-area positions, placed by area and not by the log law, miss it by far more.
+    const ea = equalAreaRoundFractions(n).map((f) => 2 * Math.min(f, 1 - f));
+    expect(Math.abs(ea.reduce((a, y) => a + Math.log(y), 0) / ea.length - -1.5)).toBeGreaterThan(0.02);
+  });
 });
 
 describe("log-Tchebycheff rectangular positions", () => {
@@ -127,11 +140,63 @@ describe("wall minimum (US EPA Method 1: 13 mm when D ≤ 0.61 m, 25 mm above)",
     expect(layout.warnings.join(" ")).toMatch(/moved out/);
   });
 
+  it("leaves log-linear positions where the rule puts them: 900 mm, 8 points, wall point at 0.021 D = 18.9 mm (ISO 5802 Table 3), not 25 mm", () => {
+    const layout = buildLayout({ duct: { shape: "round", diameterM: 0.9 }, method: "log-linear", pointsPerLine: 8, lines: 2 });
+    const line = layout.lines[0]?.points ?? [];
+    expect(line[0]?.positionM).toBeCloseTo(0.021 * 0.9, 12);
+    expect(line[0]?.depthM).toBeCloseTo(0.0189, 12);
+    expect(line.at(-1)?.positionM).toBeCloseTo(0.979 * 0.9, 12);
+    expect(line.some((p) => p.moved || p.beyondProbeReach)).toBe(false);
+    expect(layout.wallMinimumM).toBe(0);
+    expect(layout.warnings.join(" ")).not.toMatch(/moved out/);
+  });
+
+  it("leaves log-Tchebycheff positions where the rule puts them on a small duct: 0.074 × 150 mm = 11.1 mm (ASHRAE)", () => {
+    const layout = buildLayout({ duct: { shape: "rectangular", widthM: 0.15, heightM: 0.15 }, method: "log-linear", pointsPerLine: 5, lines: 5 });
+    expect(layout.lines[0]?.points[0]?.positionM).toBeCloseTo(0.0111, 12);
+    expect(layout.lines[0]?.lineXM).toBeCloseTo(0.0111, 12);
+  });
+
   it("uses 25 mm on a duct over 0.61 m", () => {
     // Equal-area 12 points: first at 2.1 % of 1000 mm = 21 mm (EPA Table 1-2) → moved to 25 mm.
     const layout = buildLayout({ duct: { shape: "round", diameterM: 1 }, method: "equal-area", pointsPerLine: 12, lines: 2 });
     expect(layout.lines[0]?.points[0]?.positionM).toBeCloseTo(0.025, 12);
     expect(layout.wallMinimumM).toBe(0.025);
+  });
+});
+
+describe("probe reach (a point nearer a wall than half the probe head is flagged, read where the head reaches)", () => {
+  it("150 mm round, log-linear 10 points, 8 mm head (common practice): the wall points at 0.019 D = 2.85 mm are read at 4 mm; 6 points suggested", () => {
+    const layout = buildLayout({ duct: { shape: "round", diameterM: 0.15 }, method: "log-linear", pointsPerLine: 10, lines: 2, portOffsetM: 0.02 });
+    const first = layout.lines[0]?.points[0];
+    const last = layout.lines[0]?.points.at(-1);
+    expect(first?.positionM).toBeCloseTo(0.019 * 0.15, 12); // published position kept
+    expect(first?.beyondProbeReach).toBe(true);
+    expect(first?.readPositionM).toBeCloseTo(0.004, 12);
+    expect(first?.depthM).toBeCloseTo(0.024, 12); // read position + port offset
+    expect(last?.readPositionM).toBeCloseTo(0.15 - 0.004, 12);
+    expect(layout.beyondReachCount).toBe(4);
+    expect(layout.probeHeadDiameterM).toBe(0.008);
+    // 8 points: 0.021 × 150 = 3.15 mm, still out of reach; 6 points: 0.032 × 150 = 4.8 mm (ISO 5802 Table 2).
+    expect(layout.reachableCounts).toEqual({ lines: 2, pointsPerLine: 6 });
+    expect(layout.warnings.join(" ")).toMatch(/4 points lie closer to a wall than the 8 mm probe head can reach \(4 mm\).*2 diameters × 6 points per line/);
+  });
+
+  it("takes the head size as an input and says when no count of the method is reachable", () => {
+    const layout = buildLayout({ duct: { shape: "round", diameterM: 0.3 }, method: "log-linear", pointsPerLine: 6, lines: 2, probeHeadDiameterM: 0.02 });
+    expect(layout.beyondReachCount).toBe(4); // 0.032 × 300 = 9.6 mm < 10 mm on both walls of both diameters
+    expect(layout.reachableCounts).toBeNull();
+    expect(layout.warnings.join(" ")).toMatch(/smaller head or the equal-area method/);
+    expect(buildLayout({ duct: { shape: "round", diameterM: 0.3 }, method: "log-linear", pointsPerLine: 6, lines: 2, probeHeadDiameterM: 0.006 }).beyondReachCount).toBe(0);
+  });
+
+  it("rectangular: a line too near a side wall is flagged too", () => {
+    // log-T 7 per side on 60 mm: 0.053 × 60 = 3.2 mm from the walls.
+    const layout = buildLayout({ duct: { shape: "rectangular", widthM: 0.06, heightM: 0.3 }, method: "log-linear", pointsPerLine: 5, lines: 7 });
+    expect(layout.lines[0]?.points.every((p) => p.beyondProbeReach)).toBe(true);
+    expect(layout.lines[0]?.points[0]?.readXM).toBeCloseTo(0.004, 12);
+    expect(layout.lines[1]?.points.some((p) => p.beyondProbeReach)).toBe(false);
+    expect(layout.reachableCounts).toEqual({ lines: 5, pointsPerLine: 5 }); // 0.074 × 60 = 4.4 mm
   });
 });
 

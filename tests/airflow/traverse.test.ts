@@ -1,6 +1,7 @@
 import psychrolib from "psychrolib";
 import { describe, expect, it } from "vitest";
 import type { AirConditions } from "@/lib/airflow/air";
+import { EngineInputError } from "@/lib/airflow/errors";
 import { reduceTraverse, type TraverseInput } from "@/lib/airflow/traverse";
 
 psychrolib.SetUnitSystem(psychrolib.SI);
@@ -107,12 +108,70 @@ describe("flags and warnings", () => {
     expect(r.warnings.join(" ")).toMatch(/4 points per line is fewer than the 8 recommended/);
   });
 
-  it("missing points switch to tributary areas and say so", () => {
+  it("a missing point keeps the method's weights, is filled from the same radius and says so", () => {
     const row = [30, 45, 50, 50, 45, 30];
+    const full = reduceTraverse(base([row, row]));
     const r = reduceTraverse(base([row, [null, ...row.slice(1)]]));
-    expect(r.integrationRule).toBe("tributary-area");
-    expect(r.warnings.join(" ")).toMatch(/1 point was not read/);
+    expect(r.integrationRule).toBe("equal-weight");
+    expect(r.filled).toEqual([expect.objectContaining({ line: 1, point: 0, from: "mirror" })]);
+    expect(r.points[6]).toEqual(expect.objectContaining({ reading: null, velocityMS: null, filledFrom: "mirror", filledVelocityMS: r.points[11]?.velocityMS }));
+    expect(r.meanVelocityMS).toBeCloseTo(full.meanVelocityMS, 12); // symmetric readings: the filled plane is the full one
+    expect(r.warnings.join(" ")).toMatch(/1 point was not read; the method's own weights were kept/);
     expect(r.quality.count).toBe(11);
+  });
+
+  it("falls back to tributary areas when a gap has no counterpart, and says so", () => {
+    const r = reduceTraverse(base([[null, 45, 50, 50, 45, null]]));
+    expect(r.integrationRule).toBe("tributary-area");
+    expect(r.warnings.join(" ")).toMatch(/2 points were not read, too many to fill/);
+  });
+
+  it("refuses a traverse whose readings are mostly negative: the pitot connections are probably swapped", () => {
+    const swapped = [[-30, -45, -50, -50, -45, 2], [-31, -44, -52, -49, -46, -29]];
+    try {
+      reduceTraverse(base(swapped));
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(EngineInputError);
+      expect((e as EngineInputError).fields.readings).toMatch(/11 of 12 readings are negative.*total and static connections .* reversed/);
+    }
+    expect(() => reduceTraverse(base(swapped.map((row) => row.map((v) => -v / 10))))).not.toThrow(); // mostly positive: a flagged plane, not refused
+  });
+
+  it("refuses a traverse with no forward flow at all instead of a flow of 0 with an infinite uncertainty", () => {
+    expect(() => reduceTraverse(base([[0, 0, -1, 0, 0, 0]]))).toThrow(EngineInputError);
+    expect(() => reduceTraverse(base([[0, 0, 0, 0, 0, 0]], { readingsKind: "velocity_actual" }))).toThrow(/No reading shows forward flow/);
+  });
+
+  it("reports each point's published and read position, flagging those the probe head cannot reach", () => {
+    // 150 mm round, log-linear 10: wall points at 0.019 D = 2.85 mm (ISO 3966 positions), an 8 mm head reads at 4 mm.
+    const r = reduceTraverse(base([Array(10).fill(40), Array(10).fill(40)], { duct: { shape: "round", diameterM: 0.15 } }));
+    expect(r.points[0]).toEqual(expect.objectContaining({ beyondProbeReach: true, positionM: expect.closeTo(0.00285, 12), readPositionM: expect.closeTo(0.004, 12) }));
+    expect(r.points[1]?.beyondProbeReach).toBe(false);
+    expect(r.warnings.join(" ")).toMatch(/closer to a wall than the 8 mm probe head can reach/);
+  });
+});
+
+describe("air inputs", () => {
+  it("a barometer that disagrees with the altitude by over 4 kPa is warned about: 101 325 Pa at 1500 m (standard 84 556 Pa) makes pitot flows 8.6 % low", () => {
+    // Standard atmosphere at 1500 m, ASHRAE Fundamentals ch. 1 eq. 3: 84 556 Pa; √(84 556/101 325) − 1 = −8.64 % (derived).
+    const r = reduceTraverse(base([Array(6).fill(50)], { air: { ...AIR, barometricPa: 101_325, altitudeM: 1500 } }));
+    expect(r.air.barometricPa).toBe(101_325);
+    expect(r.warnings.join(" ")).toMatch(/sea-level-corrected.*8\.6 % too low/);
+    const near = reduceTraverse(base([Array(6).fill(50)], { air: { ...AIR, barometricPa: 86_000, altitudeM: 1500 } }));
+    expect(near.warnings.join(" ")).not.toMatch(/sea-level-corrected/);
+  });
+
+  it("a missing static pressure is assumed 0 Pa, said so, and widens the density uncertainty", () => {
+    const { staticPa: _s, ...noStatic } = AIR;
+    void _s;
+    const measured = reduceTraverse(base([Array(6).fill(50)]));
+    const assumed = reduceTraverse(base([Array(6).fill(50)], { air: noStatic }));
+    expect(assumed.air.staticAssumed).toBe(true);
+    expect(measured.air.staticAssumed).toBe(false);
+    expect(assumed.densityKgM3).toBe(measured.densityKgM3);
+    expect(assumed.warnings.join(" ")).toMatch(/static pressure was not given: 0 Pa \(ambient\) was assumed/);
+    expect(assumed.uncertainty.terms.density).toBeGreaterThan(2 * measured.uncertainty.terms.density);
   });
 });
 
@@ -122,6 +181,21 @@ describe("anemometer readings", () => {
     const r = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_standard", air: hot }));
     expect(rel(r.massFlowKgS, 1.204 * r.areaM2 * 5)).toBeLessThan(1e-12);
     expect(r.meanVelocityMS).toBeGreaterThan(5); // hot, thin air: actual velocity above standard
+  });
+
+  it("standard velocities use the instrument's own reference density when given (here 1.2 kg/m³ against the project's 1.204)", () => {
+    const r = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_standard", instrumentStandardDensityKgM3: 1.2 }));
+    expect(rel(r.massFlowKgS, 1.2 * r.areaM2 * 5)).toBeLessThan(1e-12);
+    expect(r.standardFlowM3S).toBeCloseTo((1.2 * r.areaM2 * 5) / 1.204, 12);
+    expect(r.instrumentStandardDensityKgM3).toBe(1.2);
+  });
+
+  it("low anemometer velocities are not judged by the pitot gauge's 5 Pa criterion", () => {
+    // 2 m/s is about 2.4 Pa in standard air: a pitot reading that low would be flagged; an anemometer reading is not.
+    const r = reduceTraverse(base([[1.9, 2, 2.1, 2.1, 2, 1.9]], { readingsKind: "velocity_actual" }));
+    expect(r.quality.lowPressureCount).toBe(0);
+    expect(r.quality.verdict).toBe("good");
+    expect(r.warnings.join(" ")).not.toMatch(/under 5 Pa/);
   });
 
   it("actual velocities are used as read", () => {
@@ -135,22 +209,68 @@ describe("uncertainty", () => {
   it("is finite and smaller on a well-read plane than with a coarse gauge on low pressures", () => {
     const good = reduceTraverse(base([Array(8).fill(80), Array(8).fill(82)]));
     const poor = reduceTraverse(base([Array(8).fill(4), Array(8).fill(5)], { instrument: { pressureFloorPa: 2 } }));
-    expect(Number.isFinite(good.uncertainty.combined)).toBe(true);
-    expect(good.uncertainty.combined).toBeLessThan(0.03);
-    expect(poor.uncertainty.combined).toBeGreaterThan(0.15);
-    expect(poor.warnings.join(" ")).toMatch(/uncertainty/);
+    expect(Number.isFinite(good.uncertainty.expanded)).toBe(true);
+    expect(good.uncertainty.expanded).toBeLessThan(0.03);
+    expect(poor.uncertainty.expanded).toBeGreaterThan(0.15);
+    expect(poor.warnings.join(" ")).toMatch(/uncertainty.*\(k = 2, about 95 %\)/);
+  });
+
+  it("is expanded with k = 2 for actual, standard and mass flow, the top-level figures being the standard flow's", () => {
+    const r = reduceTraverse(base([Array(8).fill(80), Array(8).fill(82)]));
+    const u = r.uncertainty;
+    expect(u.coverageFactor).toBe(2);
+    for (const f of [u, u.actual, u.standard, u.mass]) expect(f.expanded).toBeCloseTo(2 * f.combined, 15);
+    expect(u.expanded).toBe(u.standard.expanded);
+    expect(u.terms).toEqual(u.standard.terms);
+  });
+
+  it("takes density into each flow by its exponent: pitot ½ for all; actual velocities none for actual flow; standard velocities none for standard or mass flow", () => {
+    const pitot = reduceTraverse(base([Array(6).fill(50)])).uncertainty;
+    expect(pitot.actual.terms.density).toBeGreaterThan(0);
+    expect(pitot.standard.terms.density).toBeCloseTo(pitot.actual.terms.density, 15);
+    const actual = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_actual" })).uncertainty;
+    expect(actual.actual.terms.density).toBe(0);
+    expect(actual.standard.terms.density).toBeCloseTo(2 * pitot.standard.terms.density, 12);
+    const standard = reduceTraverse(base([[4, 5, 6, 6, 5, 4]], { readingsKind: "velocity_standard" })).uncertainty;
+    expect(standard.standard.terms.density).toBe(0);
+    expect(standard.mass.terms.density).toBe(0);
+    expect(standard.actual.terms.density).toBeGreaterThan(0);
+  });
+
+  it("grows with an uneven plane and a short straight run: a poor plane 1 D from a fitting against a developed plane 10 D downstream", () => {
+    // 1/7-law plane on the ISO 5802 8-point positions: velocities follow the developed shape, no sampling term.
+    const ys = [0.021, 0.117, 0.184, 0.345, 0.655, 0.816, 0.883, 0.979];
+    const developed = ys.map((y) => pvFromVelocity(12 * (1 - Math.abs(1 - 2 * y)) ** (1 / 7)));
+    const even = reduceTraverse(base([developed, developed], { straightUpstreamM: 6, straightDownstreamM: 1.8 }));
+    expect(even.quality.verdict).toBe("good");
+    expect(even.uncertainty.terms.sampling).toBeLessThan(1e-4);
+    // Skewed plane, flow thrown to one side, 0.6 m (1 D) after a fitting.
+    const skew = [0.3, 0.5, 0.8, 1.0, 1.3, 1.6, 1.8, 1.9].map((k) => pvFromVelocity(8 * k));
+    const poor = reduceTraverse(base([skew, [...skew].reverse()], { straightUpstreamM: 0.6, straightDownstreamM: 1.8 }));
+    expect(poor.quality.verdict).toBe("poor");
+    expect(poor.uncertainty.sampling.factor).toBe(1.5);
+    expect(poor.uncertainty.expanded).toBeGreaterThan(0.1); // field traverses are typically good to 5–10 % (from memory); a poor plane worse
+    expect(poor.uncertainty.expanded).toBeGreaterThan(5 * even.uncertainty.expanded);
+    // Sampling: the spread about the better shape (here flat, CV of the velocities) / √16, × 1.5 for under 2 D upstream (method ours).
+    const v = poor.points.map((p) => p.velocityMS ?? 0);
+    const mean = v.reduce((a, b) => a + b, 0) / v.length;
+    const cv = Math.sqrt(v.reduce((a, b) => a + (b - mean) ** 2, 0) / (v.length - 1)) / mean;
+    expect(poor.uncertainty.terms.sampling).toBeCloseTo((1.5 * cv) / 4, 12);
   });
 });
 
 describe("uncertainty of a traverse", () => {
-  it("does not count a steady profile's spatial spread as random error (GUM: only the scatter of repeated readings averages down)", () => {
+  it("keeps the repeatability of point readings apart from the profile's spread (GUM: only the scatter of repeated readings is the random term)", () => {
     const pv = pvFromVelocity(10);
     const uniform = reduceTraverse(base([Array(8).fill(pv), Array(8).fill(pv)]));
     // A skewed but steady plane at the same level: ±30 % velocity across the duct.
     const skew = [0.7, 0.8, 0.9, 1.0, 1.0, 1.1, 1.2, 1.3].map((k) => pvFromVelocity(10 * k));
     const skewed = reduceTraverse(base([skew, skew]));
     expect(skewed.uncertainty.terms.random).toBe(uniform.uncertainty.terms.random);
-    // Default ±2 % repeatability over 16 points: 0.02/√16 = 0.5 %.
+    // Default 2 % repeatability (one standard deviation) over 16 points: 0.02/√16 = 0.5 %.
     expect(uniform.uncertainty.terms.random).toBeCloseTo(0.005, 12);
+    // The spread shows in the sampling term instead.
+    expect(uniform.uncertainty.terms.sampling).toBe(0);
+    expect(skewed.uncertainty.terms.sampling).toBeGreaterThan(0.02);
   });
 });

@@ -2,8 +2,11 @@ import psychrolib from "psychrolib";
 import { describe, expect, it } from "vitest";
 import type { AirConditions } from "@/lib/airflow/air";
 import {
+  COVERAGE_FACTOR,
   DEFAULT_INSTRUMENT_ACCURACY,
   areaRelativeUncertainty,
+  formatExpandedUncertainty,
+  samplingUncertainty,
   densityRelativeUncertainty,
   pressureReadingRelativeUncertainty,
   traverseUncertainty,
@@ -26,10 +29,11 @@ const NONE: InstrumentAccuracy = {
 };
 
 describe("GUM combination", () => {
-  it("3 mm on 600 mm, Pv ±1 %, ρ ±0.5 %, layout ±1 % → ±1.52 % (airflow-methods.md §5, derived)", () => {
+  it("specification limits are rectangular, u = a/√3 (GUM §4.3.7): limits 3 mm on 600 mm, Pv ±1 %, ρ ±0.5 %, layout ±1 % combine to 1.52 %/√3", () => {
+    // airflow-methods.md §5: the same figures taken as standard uncertainties give 1.52 % (derived); as limits each is a/√3.
     const duct = { shape: "round", diameterM: 0.6 } as const;
     const readingRelative = pressureReadingRelativeUncertainty(Array(16).fill(120), { pressureAccuracyPct: 1, pressureFloorPa: 0 });
-    const { combined, terms } = traverseUncertainty({
+    const { combined, expanded, coverageFactor, terms } = traverseUncertainty({
       duct,
       accuracy: { ...NONE, dimensionAccuracyM: 0.003 },
       readingRelative,
@@ -37,17 +41,30 @@ describe("GUM combination", () => {
       layoutError: -0.01,
       pointCount: 16,
     });
-    expect(terms.dimension).toBeCloseTo(0.01, 12); // 2·u_D/D
-    expect(terms.reading).toBeCloseTo(0.005, 6); // ½·u_Pv/Pv
-    expect(terms.density).toBeCloseTo(0.0025, 12); // ½·u_ρ/ρ
-    expect(terms.layout).toBe(0.01);
-    expect(combined * 100).toBeCloseTo(1.52, 2);
+    const r3 = Math.sqrt(3);
+    expect(terms.dimension).toBeCloseTo(0.01 / r3, 12); // 2·u_D/D
+    expect(terms.reading).toBeCloseTo(0.005 / r3, 6); // ½·u_Pv/Pv
+    expect(terms.density).toBeCloseTo(0.0025 / r3, 12); // ½·u_ρ/ρ
+    expect(terms.layout).toBeCloseTo(0.01 / r3, 12);
+    expect(terms.sampling).toBe(0);
+    expect(combined * 100 * r3).toBeCloseTo(1.52, 2);
+    // Expanded U = k·u_c with k = 2 (GUM §6.2.1; about 95 % for a near-normal result, §6.3.3).
+    expect(coverageFactor).toBe(2);
+    expect(COVERAGE_FACTOR).toBe(2);
+    expect(expanded).toBeCloseTo(2 * combined, 15);
   });
 
-  it("point-reading repeatability averages down as u/√N (GUM §4.2.3, standard deviation of the mean)", () => {
+  it("point-reading repeatability is a standard deviation and averages down as s/√N (GUM §4.2.3, standard deviation of the mean)", () => {
     const base = { duct: { shape: "round", diameterM: 0.6 } as const, accuracy: { ...NONE, repeatabilityPct: 4 }, readingRelative: 0, densityRelative: 0, layoutError: 0 };
     expect(traverseUncertainty({ ...base, pointCount: 16 }).combined).toBeCloseTo(0.01, 12);
     expect(traverseUncertainty({ ...base, pointCount: 64 }).combined).toBeCloseTo(0.005, 12);
+  });
+
+  it("the density term scales with the exponent of ρ in the flow: none for standard flow from standard velocities", () => {
+    const base = { duct: { shape: "round", diameterM: 0.6 } as const, accuracy: NONE, readingRelative: 0, densityRelative: 0.01, layoutError: 0, pointCount: 16 };
+    expect(traverseUncertainty({ ...base, densitySensitivity: 0 }).terms.density).toBe(0);
+    expect(traverseUncertainty({ ...base, densitySensitivity: 1 }).terms.density).toBeCloseTo(0.01 / Math.sqrt(3), 12);
+    expect(traverseUncertainty({ ...base, densitySensitivity: 0.5 }).terms.density).toBeCloseTo(0.005 / Math.sqrt(3), 12);
   });
 
   it("rectangular area: √((u/W)² + (u/H)²); 3 mm on 1200 × 600 mm is 0.559 % (derived)", () => {
@@ -55,7 +72,38 @@ describe("GUM combination", () => {
   });
 });
 
-describe("reading uncertainty", () => {
+describe("sampling term (method ours: spread about the better of a flat and a developed shape, s/√N)", () => {
+  it("is zero for a flat plane and for a plane that follows the developed shape exactly", () => {
+    const developed = [0.6, 0.8, 0.9, 1, 1, 0.9, 0.8, 0.6];
+    expect(samplingUncertainty(Array(8).fill(10), developed).relative).toBe(0);
+    expect(samplingUncertainty(developed.map((d) => 12 * d), developed).relative).toBeCloseTo(0, 12);
+  });
+
+  it("is the sample coefficient of variation over √N (hand-computed: 1, 2, 3, 4 → √(5/3)/2.5/2)", () => {
+    const s = samplingUncertainty([1, 2, 3, 4], [1, 1, 1, 1]);
+    expect(s.unevenness).toBeCloseTo(Math.sqrt(5 / 3) / 2.5, 12);
+    expect(s.relative).toBeCloseTo(Math.sqrt(5 / 3) / 2.5 / 2, 12);
+  });
+
+  it("falls as 1/√N with more points and grows by 1.25 / 1.5 on a short / unsuitable straight run (factors ours)", () => {
+    const few = samplingUncertainty([5, 10, 5, 10], [1, 1, 1, 1]);
+    const many = samplingUncertainty(Array.from({ length: 16 }, (_, i) => (i % 2 === 0 ? 5 : 10)), Array(16).fill(1));
+    expect(few.relative / many.relative).toBeCloseTo(2 * (few.unevenness / many.unevenness), 12);
+    expect(samplingUncertainty([5, 10, 5, 10], [1, 1, 1, 1], "short").relative).toBeCloseTo(1.25 * few.relative, 12);
+    expect(samplingUncertainty([5, 10, 5, 10], [1, 1, 1, 1], "unsuitable").relative).toBeCloseTo(1.5 * few.relative, 12);
+    expect(samplingUncertainty([5, 10, 5, 10], [1, 1, 1, 1], "good").relative).toBe(few.relative);
+  });
+});
+
+describe("formatExpandedUncertainty", () => {
+  it("states the coverage beside the figure", () => {
+    expect(formatExpandedUncertainty(0.0612)).toBe("± 6.1 % (k = 2, about 95 %)");
+    expect(formatExpandedUncertainty(0.0612, { digits: 2 })).toBe("± 6.12 % (k = 2, about 95 %)");
+    expect(formatExpandedUncertainty(Number.POSITIVE_INFINITY)).toMatch(/not determinable \(k = 2/);
+  });
+});
+
+describe("reading error bounds (specification limits, before the a/√3 conversion)", () => {
   it("a ±1 Pa gauge is about ±9 % on velocity at 3 m/s (airflow-methods.md §5, derived)", () => {
     const pv = 0.5 * 1.204 * 3 * 3; // 5.42 Pa in standard air
     const u = pressureReadingRelativeUncertainty([pv], { pressureAccuracyPct: 0, pressureFloorPa: 1 });
@@ -77,7 +125,7 @@ describe("reading uncertainty", () => {
   });
 });
 
-describe("density uncertainty", () => {
+describe("density error bound (from the specification limits)", () => {
   const dry20: AirConditions = { dryBulbC: 20, barometricPa: 101_325, staticPa: 0, relativeHumidityPct: 0 };
 
   it("1 K on temperature is 0.34 % in density (airflow-methods.md §3, derived: 1/293.15)", () => {
@@ -100,6 +148,12 @@ describe("density uncertainty", () => {
     const measured = densityRelativeUncertainty({ dryBulbC: 20, barometricPa: 95_000, staticPa: 0, relativeHumidityPct: 40 }, DEFAULT_INSTRUMENT_ACCURACY);
     const altitude = densityRelativeUncertainty({ dryBulbC: 20, altitudeM: 500, staticPa: 0, relativeHumidityPct: 40 }, DEFAULT_INSTRUMENT_ACCURACY);
     expect(altitude).toBeGreaterThan(2 * measured);
+  });
+
+  it("an unmeasured static pressure counts ±1 kPa (our choice): 1000/101 325 = 0.99 % in density (derived)", () => {
+    const { staticPa: _omit, ...noStatic } = dry20;
+    void _omit;
+    expect(densityRelativeUncertainty(noStatic, NONE) * 100).toBeCloseTo(0.987, 3);
   });
 
   it("steps one-sided at the edge of the valid range (RH 100 %)", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ACTIONS, can, canInRegister, POLICY } from "@/lib/auth/policy";
+import { ACTIONS, can, canKeepInstrumentRegister, POLICY } from "@/lib/auth/policy";
 import { projectNav } from "@/lib/navigation";
 
 const member = { isAdmin: false };
@@ -19,12 +19,27 @@ describe("role policy", () => {
     expect(can(member, "commissioning_agent", "traverse.review")).toBe(true);
     expect(can(member, "technician", "traverse.review")).toBe(false);
     expect(can(member, "engineer", "deviation.accept")).toBe(true);
-    expect(can(member, "owner", "design.view")).toBe(false);
+    expect(can(member, "owner", "design.edit")).toBe(false);
     expect(can(member, "technician", "terminal.record")).toBe(true);
     expect(can(member, "owner", "terminal.record")).toBe(false);
     expect(can(member, "engineer", "project.edit")).toBe(true);
     expect(can(member, "engineer", "design.edit")).toBe(true);
     expect(can(member, "technician", "design.edit")).toBe(false);
+    expect(can(member, "technician", "conditions.record")).toBe(true);
+    for (const role of ["commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "conditions.record")).toBe(false);
+    expect(can(admin, null, "conditions.record")).toBe(false);
+  });
+
+  it("lets technicians on any project and site administrators keep the instrument register", () => {
+    expect(canKeepInstrumentRegister(member, ["owner", "technician"])).toBe(true);
+    expect(canKeepInstrumentRegister(member, ["engineer", "commissioning_agent", "owner"])).toBe(false);
+    expect(canKeepInstrumentRegister(member, [])).toBe(false);
+    expect(canKeepInstrumentRegister(admin, [])).toBe(true);
+  });
+
+  it("lets every member read design against measured, owners included (their closeout report shows it), and only engineers change it", () => {
+    for (const role of ["technician", "commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "design.view")).toBe(true);
+    expect(POLICY["design.edit"]).toEqual(["engineer"]);
   });
 
   it("gives non-members nothing and site administrators set-up and oversight only", () => {
@@ -44,9 +59,9 @@ describe("role policy", () => {
     const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
     expect(labels("technician")).toEqual(["Overview", "Field work", "Reports", "Members"]);
     expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports", "Members"]);
-    expect(labels("engineer")).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
+    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
     expect(labels("owner")).toEqual(["Overview", "Reports", "Members"]);
-    expect(labels(null, admin)).toEqual(["Overview", "Design vs measured", "Reports", "Members"]);
+    expect(labels(null, admin)).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
   });
 
   it("lets every member see who is on the project, and the engineer and site administrators manage people", () => {
@@ -65,13 +80,5 @@ describe("role policy", () => {
     expect(can(member, "engineer", "supervisor.sign")).toBe(false);
     expect(can(admin, null, "supervisor.sign")).toBe(false);
     expect(can(admin, null, "photo.add")).toBe(false);
-  });
-
-  it("decides the organisation's instrument register from any of the user's project roles", () => {
-    expect(canInRegister(member, [], "instrument.view")).toBe(false);
-    expect(canInRegister(member, ["owner"], "instrument.view")).toBe(true);
-    expect(canInRegister(member, ["owner"], "instrument.edit")).toBe(false);
-    expect(canInRegister(member, ["owner", "technician"], "instrument.edit")).toBe(true);
-    expect(canInRegister(admin, [], "instrument.edit")).toBe(true);
   });
 });

@@ -2,7 +2,8 @@
  * `npm run bench:calc`: throughput of the engine on typical jobs, median of several timed rounds after a warm-up.
  * - traverse: a 100-point reduction (10 lines × 10 points, equal-area rectangular, 1200 × 800 mm; log-Tchebycheff
  *   stops at 7 per side), through runCalcCommand (validation + reduction + JSON shaping) and the engine alone;
- * - network: continuity over 2 000 sections (a fan, 40 branches of 49 terminals, mixed mass and volume input).
+ * - network: continuity over 2 000 sections (a fan, 40 branches of 49 terminals, mixed mass and volume input);
+ * - refusal: how fast an oversized input (a 10 000 × 10 000 reading grid) is turned away.
  */
 import { performance } from "node:perf_hooks";
 import { runCalcCommand } from "@/lib/airflow/commands";
@@ -68,12 +69,20 @@ const engineInput = {
   readings,
 };
 
+const hugeRow = new Array<number>(10_000).fill(50);
+const hugeJson = { ...traverseJson, readings: new Array<number[]>(10_000).fill(hugeRow) };
+function mustRefuse(): void {
+  if (runCalcCommand("traverse", hugeJson).ok) throw new Error("the oversized bench input was accepted");
+}
+
 const traverseCommand = opsPerSecond(() => mustSucceed("traverse", traverseJson));
 const traverseEngine = opsPerSecond(() => reduceTraverse(engineInput));
 const networkRate = opsPerSecond(() => mustSucceed("network", networkJson));
+const refuseRate = opsPerSecond(mustRefuse);
 
 const fmt = (x: number, digits = 0) => x.toLocaleString("en-US", { maximumFractionDigits: digits, minimumFractionDigits: digits });
 console.log(`Airtally calc bench (Node ${process.version}; median of ${ROUNDS} rounds of ${ROUND_MS} ms after ${WARM_UP_MS} ms warm-up)`);
 console.log(`traverse, 100 points (10 × 10 equal-area rectangular), runCalcCommand: ${fmt(traverseCommand)} reductions/s (${fmt(1000 / traverseCommand, 3)} ms each)`);
 console.log(`traverse, 100 points, reduceTraverse alone:                   ${fmt(traverseEngine)} reductions/s (${fmt(1000 / traverseEngine, 3)} ms each)`);
 console.log(`network continuity, 2,000 sections, runCalcCommand:           ${fmt(1000 / networkRate, 2)} ms per check (${fmt(networkRate)} checks/s)`);
+console.log(`refusing a 10,000 × 10,000 reading grid, runCalcCommand:      ${fmt(1000 / refuseRate, 4)} ms per refusal`);

@@ -22,7 +22,7 @@ describe("npm run admin:create", () => {
   it("refuses a short password from standard input and creates nothing", () => {
     const r = run(["--email", "first@example.test", "--name", "First Admin"], "short\n");
     expect(r.status).toBe(1);
-    expect(r.stderr).toMatch(/at least 10 characters/);
+    expect(r.stderr).toMatch(/at least 12 characters/);
   }, 60_000);
 
   it("creates a site administrator from a password on standard input, and refuses the same e-mail twice", async () => {

@@ -27,7 +27,7 @@ describe("migrations and demo seed", () => {
       .map((table) => getTableName(table))
       .sort();
     expect(tables.rows.map((r) => r.table_name)).toEqual(declared);
-    expect(declared).toEqual(expect.arrayContaining(["projects", "traverses", "terminals", "terminal_readings", "instruments", "audit_log"]));
+    expect(declared).toEqual(expect.arrayContaining(["projects", "traverses", "terminals", "terminal_readings", "instruments", "audit_log", "sign_in_attempts"]));
   });
 
   it("seeds the demo once and leaves a second run without duplicates", async () => {

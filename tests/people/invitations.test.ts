@@ -137,9 +137,15 @@ describe("members and the TAB supervisor", () => {
     expect(state.signature).toBeNull();
 
     const techUser = { id: demo.tech.id, email: demo.tech.email, name: demo.tech.name };
-    expect((await failure(signCertification({ projectId: demo.library.id, user: techUser, password: "wrong password" }))).status).toBe(400);
-    expect((await failure(signCertification({ projectId: demo.library.id, user: { id: demo.cx.id, email: demo.cx.email, name: demo.cx.name }, password: DEMO_PASSWORD }))).status).toBe(403);
-    const signed = await signCertification({ projectId: demo.library.id, user: techUser, password: DEMO_PASSWORD });
+    const client = "198.51.100.7";
+    expect((await failure(signCertification({ projectId: demo.library.id, user: techUser, password: "wrong password", client }))).status).toBe(400);
+    expect((await failure(signCertification({ projectId: demo.library.id, user: { id: demo.cx.id, email: demo.cx.email, name: demo.cx.name }, password: DEMO_PASSWORD, client }))).status).toBe(403);
+    // Wrong passwords count with sign-ins: past the free attempts from one address, the next waits (429, Retry-After).
+    for (let i = 0; i < 4; i++) await failure(signCertification({ projectId: demo.library.id, user: techUser, password: "wrong password", client }));
+    const throttled = await failure(signCertification({ projectId: demo.library.id, user: techUser, password: DEMO_PASSWORD, client }));
+    expect(throttled.status).toBe(429);
+    expect(Number(throttled.headers?.["Retry-After"])).toBeGreaterThan(0);
+    const signed = await signCertification({ projectId: demo.library.id, user: techUser, password: DEMO_PASSWORD, client: "198.51.100.8" });
     expect(signed.statement).toBe(state.statement);
     expect((await getSupervisorState({ projectId: demo.library.id })).signature?.id).toBe(signed.id);
 

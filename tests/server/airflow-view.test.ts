@@ -5,7 +5,7 @@ import { getProjectDesign, listTraversesForProject } from "@/db/queries/airflow"
 import { listProjectsForUser } from "@/db/queries/projects";
 import { seedDemo } from "@/db/seed/index";
 import * as s from "@/db/schema";
-import { buildAirflowView, type SystemView } from "@/lib/server/airflow-view";
+import { buildAirflowView, reduceStoredTraverse, type SystemView } from "@/lib/server/airflow-view";
 
 let views: SystemView[];
 beforeAll(async () => {
@@ -76,6 +76,22 @@ describe("design against measured for the demo project", () => {
     expect(fan.pressureFactor).toBeCloseTo(n ** 2, 9);
     expect(fan.powerFactor).toBeCloseTo(n ** 3, 9);
     expect(views.find((v) => v.system.tag === "EF-1")!.fan).toBeNull();
+  });
+
+  it("passes the project's altitude with a measured barometer, and a missing static pressure as assumed, not as a silent 0", async () => {
+    const row = views.find((v) => v.system.tag === "AHU-1")!.sections.find((r) => r.latest && r.reduction?.ok)!;
+    const db = await getDb();
+    const [project] = await db.select().from(s.projects).where(eq(s.projects.siteName, "Wrenfield Community Library"));
+    // A sea-level-corrected weather report (101 325 Pa) at a 1500 m site, whose standard atmosphere is 84 556 Pa
+    // (ASHRAE Fundamentals ch. 1 eq. 3), and no static pressure recorded.
+    const stored = { ...row.latest!, barometricPa: 101_325, staticPa: null };
+    const reduced = reduceStoredTraverse(stored, row.section, { ...project!, altitudeM: 1500 });
+    expect(reduced.ok).toBe(true);
+    if (!reduced.ok) return;
+    expect(reduced.result.air.barometricSource).toBe("measured");
+    expect(reduced.result.air.staticAssumed).toBe(true);
+    expect(reduced.result.warnings.join(" ")).toMatch(/sea-level-corrected/);
+    expect(reduced.result.warnings.join(" ")).toMatch(/static pressure was not given/);
   });
 
   it("counts progress in the project list by each section's newest traverse, as the screens do", async () => {

@@ -95,12 +95,4 @@ describe("toSi / fromSi and display", () => {
     expect(formatQuantity("SI", "pressure", -0.01)).toBe("0.0 Pa");
     expect(formatQuantity("SI", "barometric", 101_325, { decimals: 3 })).toBe("101.325 kPa");
   });
-
-  it("converts a table's worth of values quickly (cached factors, not a mathjs parse per call)", () => {
-    const t0 = performance.now();
-    let sum = 0;
-    for (let i = 0; i < 200_000; i++) sum += convert(i, "cfm", "L/s");
-    expect(sum).toBeGreaterThan(0);
-    expect(performance.now() - t0).toBeLessThan(500);
-  });
 });

@@ -1,20 +1,31 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { buttonClasses } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/card";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { requireUser } from "@/lib/auth/guards";
 import { ROLE_LABELS } from "@/lib/auth/policy";
+import { mayCreateProject } from "@/lib/server/design";
 
 export const metadata: Metadata = { title: "Projects" };
 
 export default async function ProjectsPage() {
   const user = await requireUser();
-  const projects = await listProjectsForUser({ userId: user.id, isAdmin: user.isAdmin });
+  const [projects, mayCreate] = await Promise.all([listProjectsForUser({ userId: user.id, isAdmin: user.isAdmin }), mayCreateProject(user)]);
   return (
     <main className="mx-auto max-w-7xl px-gutter py-6">
-      <h1 className="mb-5">Projects</h1>
+      <div className="mb-5 flex flex-wrap items-center justify-between gap-3">
+        <h1>Projects</h1>
+        {mayCreate && (
+          <Link href="/projects/new" className={buttonClasses("primary")}>
+            New project
+          </Link>
+        )}
+      </div>
       {projects.length === 0 ? (
-        <EmptyState>You are not a member of any project yet. Ask your project administrator to add you.</EmptyState>
+        <EmptyState>
+          {mayCreate ? "No projects yet. Start one with New project." : "You are not a member of any project yet. Ask your project administrator to add you."}
+        </EmptyState>
       ) : (
         <ul className="grid gap-4 md:grid-cols-2">
           {projects.map((p) => {

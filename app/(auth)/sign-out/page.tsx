@@ -19,11 +19,15 @@ export default async function SignOutPage() {
           <p>
             You are signed in as <strong>{user.name}</strong> ({user.email}). Readings you have saved stay on the server.
           </p>
-          <div className="flex gap-3">
+          <div className="flex flex-wrap gap-3">
             <SignOutButton variant="primary" />
             <Link href="/projects" className={buttonClasses("secondary")}>
               Stay signed in
             </Link>
+          </div>
+          <p className="text-ink-soft">Lost a tablet, or signed in on a shared computer? End every session of yours at once.</p>
+          <div>
+            <SignOutButton variant="secondary" everywhere />
           </div>
         </>
       ) : (

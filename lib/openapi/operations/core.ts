@@ -1,6 +1,6 @@
 import { z } from "zod";
 import type { Operation } from "../registry";
-import { preferencesSchema, signInSchema } from "@/lib/validation/auth";
+import { passwordChangeSchema, preferencesSchema, signInSchema } from "@/lib/validation/auth";
 import { layoutInputSchema, networkInputSchema, traverseInputSchema } from "@/lib/validation/calc";
 
 /** Sign-in, the caller, health, projects and the calculation engine. */
@@ -15,7 +15,23 @@ export const coreOperations: Operation[] = [
     responses: { "204": { description: "Signed in; the session cookie is set." } },
     errors: [401, 429],
   },
-  { method: "post", path: "/api/auth/sign-out", tag: "Sign-in", summary: "Sign out (clears the cookie)", responses: { "204": { description: "Signed out." } } },
+  { method: "post", path: "/api/auth/sign-out", tag: "Sign-in", summary: "Sign out (clears the cookie)", signedIn: false, responses: { "204": { description: "Signed out." } } },
+  {
+    method: "post",
+    path: "/api/auth/sign-out-everywhere",
+    tag: "Sign-in",
+    summary: "End every session of the caller, on every device",
+    responses: { "204": { description: "Every session has ended." } },
+  },
+  {
+    method: "post",
+    path: "/api/auth/password",
+    tag: "Sign-in",
+    summary: "Change the caller's password; every other session of theirs ends",
+    body: passwordChangeSchema,
+    responses: { "204": { description: "Changed." } },
+    errors: [503],
+  },
   { method: "get", path: "/api/auth/me", tag: "Sign-in", summary: "The signed-in user and their project memberships", responses: { "200": { description: "The user and memberships." } } },
   {
     method: "get",

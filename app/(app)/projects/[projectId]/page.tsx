@@ -1,11 +1,14 @@
 import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { Verdict } from "@/components/ui/status";
-import { formatQuantity } from "@/lib/units";
 import { getLatestReport } from "@/db/queries/reports";
+import { can } from "@/lib/auth/policy";
+import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
+import { formatQuantity } from "@/lib/units";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Project overview" };
@@ -13,10 +16,17 @@ export const metadata: Metadata = { title: "Project overview" };
 const KIND_LABEL = { supply: "Supply", return: "Return", exhaust: "Exhaust", outside_air: "Outside air" } as const;
 
 export default async function ProjectOverviewPage({ params }: { params: Promise<{ projectId: string }> }) {
-  const screen = await loadAirflowScreen(params, "project.view");
+  // The overview shows design against measured: every member may read it (design.view), owners included.
+  const screen = await loadAirflowScreen(params, "design.view");
   if (!screen.allowed) notFound();
   const { project, units, systems } = screen;
   const latestReport = await getLatestReport({ projectId: project.id });
+  const setsUp = can(screen.user, screen.access.role, "design.edit");
+  const setupLink = (text: string) => (
+    <Link href={`/projects/${project.id}/setup`} className="font-semibold text-accent-strong underline underline-offset-4">
+      {text}
+    </Link>
+  );
 
   const sections = systems.flatMap((s) => s.sections);
   const measured = sections.filter((s) => s.reduction?.ok);
@@ -36,7 +46,12 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
   return (
     <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
       <div className="space-y-gutter lg:col-span-2">
-        {systems.length === 0 && <EmptyState>No air systems yet. The engineer adds them from the design schedule.</EmptyState>}
+        {systems.length === 0 && (
+          <EmptyState>
+            No air systems yet.{" "}
+            {setsUp ? <>Add them, with their duct trees and terminals, in {setupLink("Set-up")}, by form or from a design schedule file.</> : "The project's engineer adds them from the design schedule."}
+          </EmptyState>
+        )}
         {systems.map(({ system, sections: rows }) => (
           <Card
             key={system.id}
@@ -49,9 +64,14 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
           >
             <p className="num mb-3">
               Design airflow <strong>{formatQuantity(units, "flow", system.designFlowM3S)}</strong>
-              {system.fanSpeedRpm !== null && <> · fan {system.fanSpeedRpm} rpm</>}
-              {system.designStaticPa !== null && <> · design static {formatQuantity(units, "pressure", system.designStaticPa)}</>}
+              {system.fanSpeedRpm !== null && <> · fan {system.fanSpeedRpm.toLocaleString("en-US")} rpm</>}
+              {system.designStaticPa !== null && <> · design static {formatIn(FORM_UNITS[units].pressure, system.designStaticPa, 3)}</>}
             </p>
+            {rows.length === 0 ? (
+              <EmptyState>
+                No duct sections in {system.tag} yet. {setsUp ? <>Add its trunk and branches in {setupLink("Set-up")}.</> : "The project's engineer adds them."}
+              </EmptyState>
+            ) : (
             <table className="w-full text-left">
               <thead className="border-b-2 border-line text-sm text-ink-muted">
                 <tr>
@@ -88,6 +108,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
                 ))}
               </tbody>
             </table>
+            )}
           </Card>
         ))}
       </div>

@@ -3,7 +3,7 @@ import { countUnreadNotifications, listNotifications } from "@/db/queries/notifi
 import { defineRoute } from "@/lib/server/route";
 
 /** The caller's notifications, newest first (`?unread=1` for unread only, `?limit=` up to 100), and the unread count. */
-export const GET = defineRoute({}, async ({ req, user }) => {
+export const GET = defineRoute({ outsideProject: "signed-in" }, async ({ req, user }) => {
   const q = req.nextUrl.searchParams;
   const limit = Math.min(Math.max(Number.parseInt(q.get("limit") ?? "50", 10) || 50, 0), 100);
   const [notifications, unread] = await Promise.all([

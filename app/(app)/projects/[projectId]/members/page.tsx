@@ -8,7 +8,9 @@ import { DesignateSupervisorForm, SignStatementForm } from "@/components/people/
 import { listOpenInvitations, listProjectMembers } from "@/db/queries/members";
 import { requireProjectPage } from "@/lib/auth/guards";
 import { can, ROLE_LABELS } from "@/lib/auth/policy";
+import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
 import { getSupervisorState } from "@/lib/server/supervisor";
+import { unitSystemFor } from "@/lib/units";
 
 export const metadata: Metadata = { title: "Members" };
 
@@ -20,6 +22,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
   if (!page.allowed) return <NotAllowed what="seeing the project's members" />;
   const { user, access } = page;
   const { project } = access;
+  const u = FORM_UNITS[unitSystemFor(user, project)];
   const mayInvite = can(user, access.role, "members.invite");
   const mayManage = can(user, access.role, "members.manage");
   const [members, invitations, supervisor] = await Promise.all([
@@ -154,11 +157,11 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
             <dt className="text-ink-muted">Address</dt>
             <dd>{project.address || "—"}</dd>
             <dt className="text-ink-muted">Altitude</dt>
-            <dd className="num">{project.altitudeM} m</dd>
+            <dd className="num">{formatIn(u.altitude, project.altitudeM, 4)}</dd>
             <dt className="text-ink-muted">Units</dt>
             <dd>{project.unitSystem === "IP" ? "Inch-pound" : "SI"}</dd>
             <dt className="text-ink-muted">Standard air</dt>
-            <dd className="num">{project.standardDensityKgM3} kg/m³</dd>
+            <dd className="num">{formatIn(u.density, project.standardDensityKgM3, 4)}</dd>
             <dt className="text-ink-muted">Terminals</dt>
             <dd className="num">{formatTolerance(toleranceFor(project, "outlet"))} of design</dd>
             <dt className="text-ink-muted">Duct sections</dt>

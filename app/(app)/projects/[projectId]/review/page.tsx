@@ -3,12 +3,30 @@ import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
+import type { TraverseUncertainty } from "@/lib/airflow/traverse";
+import { formatExpandedUncertainty } from "@/lib/airflow/uncertainty";
 import { formatQuantity } from "@/lib/units";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
 export const metadata: Metadata = { title: "Review" };
 
 const QUALITY_LABEL = { good: "Good plane", marginal: "Marginal plane", poor: "Poor plane" } as const;
+
+/** Expanded uncertainty of each flow, with its coverage; one line when the three agree (pitot readings). */
+function UncertaintyFigures({ uncertainty }: { uncertainty: TraverseUncertainty }) {
+  const figure = (u: number) => <span className="whitespace-nowrap">{formatExpandedUncertainty(u)}</span>;
+  const { actual, standard, mass } = uncertainty;
+  const same = formatExpandedUncertainty(actual.expanded) === formatExpandedUncertainty(standard.expanded) && formatExpandedUncertainty(mass.expanded) === formatExpandedUncertainty(standard.expanded);
+  if (same) return <>{figure(standard.expanded)} on actual, standard and mass flow</>;
+  return (
+    <>
+      {figure(standard.expanded)} on standard flow
+      <span className="block text-sm text-ink-soft">
+        actual flow {figure(actual.expanded)}; mass flow {figure(mass.expanded)}
+      </span>
+    </>
+  );
+}
 
 export default async function ReviewPage({ params }: { params: Promise<{ projectId: string }> }) {
   const screen = await loadAirflowScreen(params, "traverse.review");
@@ -48,7 +66,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
                 <dt className="text-ink-muted">Air density</dt>
                 <dd>{formatQuantity(units, "density", item.reduction.result.densityKgM3)}</dd>
                 <dt className="text-ink-muted">Uncertainty</dt>
-                <dd>± {pct(100 * item.reduction.result.uncertainty.combined, 1)} of flow</dd>
+                <dd>
+                  <UncertaintyFigures uncertainty={item.reduction.result.uncertainty} />
+                </dd>
               </dl>
               <div>
                 <p className="font-semibold">{QUALITY_LABEL[item.reduction.result.quality.verdict]}</p>

@@ -2,9 +2,10 @@ import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
 import type { Metadata } from "next";
 import { BalancingAids } from "@/components/airflow/balancing-aids";
 import { ductSize, pct } from "@/components/airflow/format";
-import { Card } from "@/components/ui/card";
+import { Card, EmptyState } from "@/components/ui/card";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge, Verdict } from "@/components/ui/status";
+import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
 import { displayUnit, formatQuantity } from "@/lib/units";
 import { loadAirflowScreen } from "@/lib/server/project-screen";
 
@@ -22,13 +23,15 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <p className="text-ink-soft">
-        Design airflow is compared with measured flow at standard air ({project.standardDensityKgM3} kg/m³). Continuity is checked by mass at every
+        Design airflow is compared with measured flow at standard air ({formatIn(FORM_UNITS[units].density, project.standardDensityKgM3, 4)}). Continuity is checked by mass at every
         junction: volumes add only where the air has the same density. Tolerances: sections {formatTolerance(toleranceFor(project, "section"))}, junctions ±
         {project.continuityTolerancePct} %.
       </p>
+      {systems.length === 0 && <EmptyState>No air systems yet: add them in Set-up, by form or from a design schedule file.</EmptyState>}
       {systems.map(({ system, sections, junctions, branchPlans, fan }) => (
         <Card key={system.id} title={`${system.tag} · ${system.name}`}>
-          <div className="overflow-x-auto">
+          {sections.length === 0 && <EmptyState>No duct sections in {system.tag} yet: add its trunk and branches in Set-up.</EmptyState>}
+          <div className={`overflow-x-auto ${sections.length === 0 ? "hidden" : ""}`}>
             <table className="w-full min-w-[46rem] text-left">
               <caption className="sr-only">Sections of {system.tag}, design against measured</caption>
               <thead className="border-b-2 border-line text-sm text-ink-muted">
@@ -74,6 +77,9 @@ export default async function DesignVsMeasuredPage({ params }: { params: Promise
             </table>
           </div>
           <h3 className="mt-5 mb-2 text-lg font-semibold">Continuity at junctions</h3>
+          {junctions.length === 0 && (
+            <EmptyState>No junction to check yet: a junction appears where a section has branches. Add branches below the trunk in Set-up.</EmptyState>
+          )}
           <ul className="space-y-2">
             {junctions.map((j) => (
               <li key={j.parent.id} className="rounded-card border border-line p-3">

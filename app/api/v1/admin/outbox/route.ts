@@ -4,7 +4,7 @@ import { smtpUrl } from "@/lib/server/mailer";
 import { defineRoute, jsonError } from "@/lib/server/route";
 
 /** Site administrators: every e-mail the app wrote, newest first (`?to=` one address, `?limit=` up to 200). */
-export const GET = defineRoute({}, async ({ req, user }) => {
+export const GET = defineRoute({ outsideProject: "signed-in" }, async ({ req, user }) => {
   if (!user.isAdmin) return jsonError(403, "Only site administrators can read the outbox.");
   const q = req.nextUrl.searchParams;
   const limit = Math.min(Math.max(Number.parseInt(q.get("limit") ?? "50", 10) || 50, 1), 200);

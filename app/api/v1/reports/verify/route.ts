@@ -1,9 +1,10 @@
-import { NextResponse, type NextRequest } from "next/server";
-import { clientAddress, overLimit, withSlot } from "@/lib/server/limits";
+import { NextResponse } from "next/server";
+import { overLimit, withSlot } from "@/lib/server/limits";
 import { readMultipartFile } from "@/lib/server/multipart";
 import { MAX_REPORT_BYTES } from "@/lib/server/report-issue";
 import { verifyReportFile } from "@/lib/server/report-verify";
-import { jsonError } from "@/lib/server/route";
+import { clientAddress } from "@/lib/server/request";
+import { defineRoute, jsonError } from "@/lib/server/route";
 
 export const dynamic = "force-dynamic";
 
@@ -12,25 +13,21 @@ const PER_MINUTE = 30;
 const AT_ONCE = 3;
 
 /**
- * Public: is this file a report this deployment issued? Multipart, field `file`.
+ * Public: is this file a report this deployment issued? Multipart, field `file`, read while it
+ * streams and cut off past the largest report Airtally issues (413).
  * Answers {valid, reason?, report?}; a file that matches nothing is `valid: false`, not an error.
  */
-export async function POST(req: NextRequest) {
-  try {
-    if (overLimit("verify", clientAddress(req), PER_MINUTE, 60_000)) return jsonError(429, "Too many checks from this address; wait a minute and try again.");
-    return await withSlot(
-      "verify",
-      AT_ONCE,
-      async () => {
-        const body = await readMultipartFile(req, { maxFileBytes: MAX_REPORT_BYTES, limitWords: `${MAX_REPORT_BYTES / 1048576} MB, which is larger than any report Airtally issues` });
-        if (!body.ok) return jsonError(body.status, body.message, body.field ? { [body.field]: body.message } : undefined);
-        if (!body.file) return jsonError(400, 'Attach the report in the field "file".', { file: "Choose the report's PDF file." });
-        return NextResponse.json(await verifyReportFile(body.file.bytes), { headers: { "cache-control": "no-store" } });
-      },
-      () => jsonError(503, "Several files are being checked right now; try again in a moment."),
-    );
-  } catch (err) {
-    console.error("[api] POST /api/v1/reports/verify failed", err);
-    return jsonError(500, "Something went wrong on the server; try again.");
-  }
-}
+export const POST = defineRoute({ outsideProject: "public" }, async ({ req }) => {
+  if (overLimit("verify", clientAddress(req), PER_MINUTE, 60_000)) return jsonError(429, "Too many checks from this address; wait a minute and try again.");
+  return withSlot(
+    "verify",
+    AT_ONCE,
+    async () => {
+      const body = await readMultipartFile(req, { maxFileBytes: MAX_REPORT_BYTES, limitWords: `${MAX_REPORT_BYTES / 1048576} MB, which is larger than any report Airtally issues` });
+      if (!body.ok) return jsonError(body.status, body.message, body.field ? { [body.field]: body.message } : undefined);
+      if (!body.file) return jsonError(400, 'Attach the report in the field "file".', { file: "Choose the report's PDF file." });
+      return NextResponse.json(await verifyReportFile(body.file.bytes));
+    },
+    () => jsonError(503, "Several files are being checked right now; try again in a moment."),
+  );
+});

@@ -4,7 +4,7 @@ import { defineRoute } from "@/lib/server/route";
 
 /** Every issued revision of the project's closeout report, newest first, with its download and check links. */
 export const GET = defineRoute({ project: { param: "projectId", action: "report.download" } }, async ({ access }) => {
-  const projectId = access!.project.id;
+  const projectId = access.project.id;
   const reports = await listReports({ projectId });
   return NextResponse.json({
     reports: reports.map((r) => ({

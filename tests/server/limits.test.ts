@@ -1,30 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { readBoundedJson } from "@/lib/server/bounded-json";
-import { clientAddress, overLimit, withSlot } from "@/lib/server/limits";
+import { overLimit, withSlot } from "@/lib/server/limits";
 import { normaliseVerificationCode, newVerificationCode } from "@/lib/server/report-codes";
-
-function jsonRequest(body: BodyInit, headers: Record<string, string> = { "content-type": "application/json" }) {
-  return new Request("http://localhost/x", { method: "POST", body, headers, duplex: "half" } as RequestInit);
-}
-
-describe("bounded JSON bodies for public routes", () => {
-  it("reads a small JSON body and refuses other types, bad JSON and bodies over the cap while streaming", async () => {
-    expect(await readBoundedJson(jsonRequest('{"a":1}'), 100)).toEqual({ ok: true, value: { a: 1 } });
-    expect(await readBoundedJson(jsonRequest("a=1", { "content-type": "application/x-www-form-urlencoded" }), 100)).toMatchObject({ ok: false, status: 415 });
-    expect(await readBoundedJson(jsonRequest("{nope"), 100)).toMatchObject({ ok: false, status: 400 });
-    expect(await readBoundedJson(jsonRequest("x".repeat(200), { "content-type": "application/json", "content-length": "200" }), 100)).toMatchObject({ ok: false, status: 413 });
-    // No declared length: counted as it arrives.
-    let sent = 0;
-    const endless = new ReadableStream<Uint8Array>({
-      pull(c) {
-        sent += 1024;
-        c.enqueue(new Uint8Array(1024).fill(32));
-      },
-    });
-    expect(await readBoundedJson(jsonRequest(endless), 4096)).toMatchObject({ ok: false, status: 413 });
-    expect(sent).toBeLessThan(16 * 1024);
-  });
-});
 
 describe("limits for public and heavy routes", () => {
   it("counts calls per client in a window", () => {
@@ -32,7 +8,6 @@ describe("limits for public and heavy routes", () => {
     for (let i = 0; i < 3; i++) expect(overLimit("t", client, 3, 60_000)).toBe(false);
     expect(overLimit("t", client, 3, 60_000)).toBe(true);
     expect(overLimit("t", `${client}-other`, 3, 60_000)).toBe(false);
-    expect(clientAddress(new Request("http://x", { headers: { "x-forwarded-for": "203.0.113.9, 10.0.0.1" } }))).toBe("203.0.113.9");
   });
 
   it("runs at most N at once and answers busy to the rest", async () => {

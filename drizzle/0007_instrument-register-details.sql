@@ -1,0 +1,5 @@
+ALTER TABLE "instruments" ADD COLUMN "certificate_number" text DEFAULT '' NOT NULL;--> statement-breakpoint
+ALTER TABLE "instruments" ADD COLUMN "humidity_accuracy_pct" double precision;--> statement-breakpoint
+ALTER TABLE "instruments" ADD COLUMN "updated_at" timestamp with time zone DEFAULT now() NOT NULL;--> statement-breakpoint
+ALTER TABLE "instruments" ADD CONSTRAINT "instruments_range_order" CHECK ("instruments"."range_min" is null or "instruments"."range_max" is null or "instruments"."range_min" < "instruments"."range_max");--> statement-breakpoint
+ALTER TABLE "instruments" ADD CONSTRAINT "instruments_due_after_calibration" CHECK ("instruments"."calibrated_on" is null or "instruments"."calibration_due_on" is null or "instruments"."calibration_due_on" > "instruments"."calibrated_on");

@@ -1,0 +1,203 @@
+/**
+ * `npm run load`: the production build on loopback, driven by autocannon with signed-in users,
+ * a mix of reads and saves. Bounded in time; sends traffic to 127.0.0.1 only.
+ *
+ *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write preference] [--postgres | --database postgres-url]
+ *
+ * Prints requests/s, p50/p95/p99 latency and errors for reads and writes separately, and exits 1
+ * when any request failed. The server runs on a fresh embedded database in a temporary directory
+ * (or on a throwaway PostgreSQL cluster with --postgres, or on --database, a PostgreSQL database it
+ * may seed), and is stopped and removed afterwards.
+ */
+import { spawn } from "node:child_process";
+import crypto from "node:crypto";
+import fs from "node:fs";
+import net from "node:net";
+import os from "node:os";
+import path from "node:path";
+import autocannon, { type Request as CannonRequest } from "autocannon";
+import { startPostgres, type PostgresServer } from "../support/postgres-cluster";
+import { DEFAULT_WRITE_MIX, WRITE_MIXES, type LoadContext } from "./writes";
+
+const ROOT = path.resolve(import.meta.dirname, "../..");
+const DEMO_PASSWORD = "airtally-demo";
+const ACCOUNTS = ["tech@example.test", "cx@example.test", "engineer@example.test", "owner@example.test"];
+
+function option(name: string, fallback: string): string {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 && process.argv[i + 1] ? process.argv[i + 1]! : fallback;
+}
+const duration = Number(option("duration", "30"));
+const connections = Number(option("connections", "50"));
+const writers = Number(option("writers", "5"));
+const writeMix = option("write", DEFAULT_WRITE_MIX);
+let databaseUrl = option("database", "");
+const throwawayPostgres = process.argv.includes("--postgres");
+if (!(duration > 0 && duration <= 600)) throw new Error("--duration is in seconds, 1 to 600.");
+if (!(writers >= 0 && writers < connections && connections <= 500)) throw new Error("--connections 1–500, --writers fewer than connections.");
+if (!WRITE_MIXES[writeMix]) throw new Error(`--write must be one of: ${Object.keys(WRITE_MIXES).join(", ")}.`);
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.listen(0, "127.0.0.1", () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+    s.on("error", reject);
+  });
+}
+
+/** CPU seconds (user + system) a process has used so far, from /proc (Linux). */
+function cpuSeconds(pid: number): number {
+  const fields = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+  return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+}
+
+/** The server process the launcher started (its only child). */
+function serverPid(launcherPid: number): number | null {
+  try {
+    const kids = fs.readFileSync(`/proc/${launcherPid}/task/${launcherPid}/children`, "utf8").trim().split(/\s+/).filter(Boolean);
+    return kids.length > 0 ? Number(kids[0]) : null;
+  } catch {
+    return null;
+  }
+}
+
+const round = (n: number) => (Number.isFinite(n) ? Math.round(n) : "—");
+
+function percentile(sorted: number[], p: number): number {
+  if (sorted.length === 0) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!;
+}
+
+interface Summary {
+  label: string;
+  requests: number;
+  rps: number;
+  p50: number;
+  p95: number;
+  p99: number;
+  max: number;
+  errors: number;
+  non2xx: number;
+  timeouts: number;
+}
+
+function drive(label: string, url: string, conns: number, requests: CannonRequest[]): Promise<Summary> {
+  const latencies: number[] = [];
+  return new Promise((resolve, reject) => {
+    const instance = autocannon({ url, connections: conns, duration, requests, timeout: 10 }, (err, result) => {
+      if (err) return reject(err);
+      latencies.sort((a, b) => a - b);
+      resolve({
+        label,
+        requests: result.requests.total,
+        rps: result.requests.total / duration,
+        p50: percentile(latencies, 50),
+        p95: percentile(latencies, 95),
+        p99: percentile(latencies, 99),
+        max: latencies.at(-1) ?? NaN,
+        errors: result.errors,
+        non2xx: result.non2xx,
+        timeouts: result.timeouts,
+      });
+    });
+    instance.on("response", (_client: unknown, _status: number, _bytes: number, responseTime: number) => latencies.push(responseTime));
+  });
+}
+
+async function main() {
+  let cluster: PostgresServer | null = null;
+  if (throwawayPostgres) {
+    cluster = await startPostgres();
+    databaseUrl = cluster.url;
+  }
+  const port = await freePort();
+  const base = `http://127.0.0.1:${port}`;
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), "airtally-load-"));
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    PORT: String(port),
+    AIRTALLY_DATA_DIR: path.join(dataDir, "data"),
+    AIRTALLY_SESSION_SECRET: crypto.randomBytes(32).toString("base64url"),
+    ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
+  };
+  if (!databaseUrl) delete env.DATABASE_URL;
+  // The launcher itself (node --import tsx): one process to signal; it stops the server and releases the lock.
+  const server = spawn(process.execPath, ["--import", "tsx", "lib/cli/serve.ts", "--demo"], { cwd: ROOT, env, stdio: ["ignore", "pipe", "inherit"] });
+  const exited = new Promise<void>((r) => server.on("exit", () => r()));
+  const hardStop = setTimeout(() => {
+    console.error("load: giving up after the time limit");
+    server.kill("SIGKILL");
+    process.exit(2);
+  }, (duration + 300) * 1000);
+  const stop = async () => {
+    server.kill("SIGTERM");
+    await exited;
+    clearTimeout(hardStop);
+    fs.rmSync(dataDir, { recursive: true, force: true });
+    cluster?.stop();
+  };
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let out = "";
+      server.stdout!.on("data", (d) => {
+        out += String(d);
+        if (out.includes("Airtally is ready")) resolve();
+      });
+      server.on("exit", (code) => reject(new Error(`the server exited (${code}) before it was ready:\n${out}`)));
+    });
+
+    const cookies: Record<string, string> = {};
+    for (const email of ACCOUNTS) {
+      const res = await fetch(`${base}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) });
+      if (res.status !== 204) throw new Error(`sign-in as ${email} answered ${res.status}`);
+      cookies[email] = res.headers.get("set-cookie")!.split(";")[0]!;
+    }
+    const list = (await (await fetch(`${base}/api/v1/projects`, { headers: { cookie: cookies["engineer@example.test"]! } })).json()) as { projects: { id: string; name: string }[] };
+    const ctx: LoadContext = { cookies, projects: Object.fromEntries(list.projects.map((p) => [p.name, p.id])) };
+    const library = list.projects.find((p) => p.name.startsWith("Wrenfield"))!.id;
+
+    const reads: CannonRequest[] = Object.values(cookies).flatMap((cookie) => [
+      { method: "GET", path: "/api/v1/projects", headers: { cookie } },
+      { method: "GET", path: `/api/v1/projects/${library}`, headers: { cookie } },
+      { method: "GET", path: "/api/auth/me", headers: { cookie } },
+    ]);
+    const writes = WRITE_MIXES[writeMix]!(ctx);
+
+    console.log(`\nDriving ${base} for ${duration} s: ${connections - writers} read connections, ${writers} write connections (${writeMix})…`);
+    const pid = serverPid(server.pid!);
+    const cpuBefore = pid ? cpuSeconds(pid) : NaN;
+    const loadBefore = os.loadavg()[0]!;
+    const results = await Promise.all([
+      drive("reads", base, connections - writers, reads),
+      ...(writers > 0 ? [drive(`writes (${writeMix})`, base, writers, writes)] : []),
+    ]);
+
+    const cpuUsed = pid ? cpuSeconds(pid) - cpuBefore : NaN;
+    const total = results.reduce((n, r) => n + r.requests, 0);
+    console.log("\n| traffic | requests | req/s | p50 ms | p95 ms | p99 ms | max ms | errors | non-2xx | timeouts |");
+    console.log("|---|---|---|---|---|---|---|---|---|---|");
+    for (const r of results) {
+      console.log(`| ${r.label} | ${r.requests} | ${r.rps.toFixed(0)} | ${round(r.p50)} | ${round(r.p95)} | ${round(r.p99)} | ${round(r.max)} | ${r.errors} | ${r.non2xx} | ${r.timeouts} |`);
+    }
+    // CPU per request does not depend on what else the machine is doing; latency does.
+    console.log(`\nServer CPU: ${cpuUsed.toFixed(1)} s for ${total} requests = ${((cpuUsed * 1000) / total).toFixed(2)} ms per request.`);
+    console.log(`Load average (1 min) before/after: ${loadBefore.toFixed(1)} / ${os.loadavg()[0]!.toFixed(1)} on ${os.cpus().length} cores.`);
+    console.log(`\n${new Date().toISOString().slice(0, 10)} · ${os.cpus().length} × ${os.cpus()[0]?.model.trim()} · ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB · Node ${process.version} · ${databaseUrl ? "PostgreSQL" : "embedded PGlite"}`);
+    const failed = results.reduce((n, r) => n + r.errors + r.non2xx + r.timeouts, 0);
+    const reads95 = results[0]!.p95;
+    console.log(`Target: zero errors (${failed === 0 ? "met" : `${failed} failed`}), read p95 under 100 ms (${reads95 < 100 ? "met" : `not met: ${reads95} ms`}).`);
+    await stop();
+    process.exit(failed === 0 ? 0 : 1);
+  } catch (err) {
+    await stop();
+    throw err;
+  }
+}
+
+main().catch((err: Error) => {
+  console.error(`load: ${err.message}`);
+  process.exit(2);
+});
