@@ -56,9 +56,22 @@ export async function getPhoto({ projectId, sectionId, photoId }: { projectId: s
   return row ?? null;
 }
 
-/** The newest calibration certificate of an instrument. */
+/** The newest calibration certificate of an instrument, with the name of whoever attached it. */
 export async function getCurrentCertificate({ instrumentId }: { instrumentId: string }) {
   const db = await getDb();
-  const [row] = await db.select().from(instrumentCertificates).where(eq(instrumentCertificates.instrumentId, instrumentId)).orderBy(desc(instrumentCertificates.createdAt)).limit(1);
-  return row ?? null;
+  const [row] = await db
+    .select({ certificate: instrumentCertificates, uploadedByName: users.name })
+    .from(instrumentCertificates)
+    .leftJoin(users, eq(users.id, instrumentCertificates.uploadedBy))
+    .where(eq(instrumentCertificates.instrumentId, instrumentId))
+    .orderBy(desc(instrumentCertificates.createdAt))
+    .limit(1);
+  return row ? { ...row.certificate, uploadedByName: row.uploadedByName } : null;
+}
+
+/** Every stored object of an instrument's certificates (files and thumbnails), to remove with the instrument. */
+export async function listCertificateObjectKeys({ instrumentId }: { instrumentId: string }): Promise<string[]> {
+  const db = await getDb();
+  const rows = await db.select({ objectKey: instrumentCertificates.objectKey, thumbKey: instrumentCertificates.thumbKey }).from(instrumentCertificates).where(eq(instrumentCertificates.instrumentId, instrumentId));
+  return rows.flatMap((r) => (r.thumbKey ? [r.objectKey, r.thumbKey] : [r.objectKey]));
 }

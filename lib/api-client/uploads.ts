@@ -22,6 +22,22 @@ export interface PhotoItem {
   thumbUrl: string;
 }
 
+/** An instrument's current calibration certificate, as GET/POST …/instruments/{id}/certificate describe it. */
+export interface CertificateItem {
+  id: string;
+  instrumentId: string;
+  contentType: string;
+  bytes: number;
+  fileName: string;
+  uploadedBy: string | null;
+  uploadedByName: string | null;
+  createdAt: string;
+  /** The file, through our route. */
+  url: string;
+  /** An image certificate's thumbnail; null for a PDF. */
+  thumbUrl: string | null;
+}
+
 /**
  * Sends one file as multipart/form-data with upload progress (fetch cannot report it, XHR can).
  * Resolves with the JSON answer; rejects with ApiError carrying the server's message.

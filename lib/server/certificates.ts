@@ -10,6 +10,7 @@ import { isUuid } from "@/db/queries/projects";
 import { getInstrument } from "@/db/queries/instruments";
 import { getCurrentCertificate } from "@/db/queries/uploads";
 import { instrumentCertificates } from "@/db/schema";
+import type { CertificateItem } from "@/lib/api-client/uploads";
 import { withSlot } from "./limits";
 import { readMultipartFile } from "./multipart";
 import { jsonError } from "./route";
@@ -18,10 +19,30 @@ import { describeImage, detectUploadType, EXTENSIONS, UPLOAD_LIMIT_WORDS, UPLOAD
 
 const NO_INSTRUMENT = "No such instrument in the register.";
 
-function view(c: typeof instrumentCertificates.$inferSelect) {
+/** A certificate as the API and the instrument page show it; its file only ever through our route. */
+function view(c: typeof instrumentCertificates.$inferSelect & { uploadedByName?: string | null }) {
   const url = `/api/v1/instruments/${c.instrumentId}/certificate`;
-  return { id: c.id, instrumentId: c.instrumentId, contentType: c.contentType, bytes: c.bytes, fileName: c.fileName, uploadedBy: c.uploadedBy, createdAt: c.createdAt, url, thumbUrl: c.thumbKey ? `${url}?thumb=1` : null };
+  return {
+    id: c.id,
+    instrumentId: c.instrumentId,
+    contentType: c.contentType,
+    bytes: c.bytes,
+    fileName: c.fileName,
+    uploadedBy: c.uploadedBy,
+    uploadedByName: c.uploadedByName ?? null,
+    createdAt: c.createdAt,
+    url,
+    thumbUrl: c.thumbKey ? `${url}?thumb=1` : null,
+  };
 }
+
+/** The instrument's current certificate for a page's first render (dates as strings), or null. */
+export async function currentCertificateForClient({ instrumentId }: { instrumentId: string }) {
+  const cert = await getCurrentCertificate({ instrumentId });
+  return cert ? (JSON.parse(JSON.stringify(view(cert))) as CertificateView) : null;
+}
+
+export type CertificateView = CertificateItem;
 
 export async function uploadCertificate({ req, instrumentId, userId }: { req: Request; instrumentId: string; userId: string }): Promise<Response> {
   if (!isUuid(instrumentId) || !(await getInstrument({ id: instrumentId }))) return jsonError(404, NO_INSTRUMENT);
@@ -65,7 +86,8 @@ async function receive({ req, instrumentId, userId }: { req: Request; instrument
     throw err;
   }
   await recordAudit({ userId, projectId: null, action: "instrument.certificate_added", entityType: "instrument", entityId: instrumentId, detail: { certificateId: id, bytes: row!.bytes, contentType: type.type, fileName: row!.fileName } });
-  return NextResponse.json({ certificate: view(row!) }, { status: 201 });
+  const current = await getCurrentCertificate({ instrumentId });
+  return NextResponse.json({ certificate: view(current?.id === id ? current : row!) }, { status: 201 });
 }
 
 export async function downloadCertificate({ instrumentId, thumb }: { instrumentId: string; thumb: boolean }): Promise<Response> {
@@ -77,5 +99,3 @@ export async function downloadCertificate({ instrumentId, thumb }: { instrumentI
   if (!obj) return jsonError(404, "The certificate's file is missing from storage.");
   return objectResponse(obj, { contentType: thumb ? "image/jpeg" : cert.contentType, fileName: cert.fileName || `certificate.${EXTENSIONS[cert.contentType as keyof typeof EXTENSIONS] ?? "bin"}` });
 }
-
-export { view as certificateView };
