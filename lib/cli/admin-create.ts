@@ -10,7 +10,7 @@
 import readline from "node:readline";
 import { sql } from "drizzle-orm";
 import { defaultDataDir, openDatabase } from "@/db/client";
-import { users } from "@/db/schema";
+import { auditLog, users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { newPasswordSchema } from "@/lib/validation/auth";
 import { z } from "zod";
@@ -92,7 +92,13 @@ async function main() {
   try {
     const [existing] = await handle.db.select({ id: users.id }).from(users).where(sql`lower(${users.email}) = ${email.toLowerCase()}`);
     if (existing) throw new Error(`An account for ${email} exists already; nothing was changed.`);
-    await handle.db.insert(users).values({ email: email.toLowerCase(), name, passwordHash: await hashPassword(password), isAdmin: true });
+    const address = email.toLowerCase();
+    const passwordHash = await hashPassword(password);
+    await handle.db.transaction(async (tx) => {
+      const [created] = await tx.insert(users).values({ email: address, name, passwordHash, isAdmin: true }).returning({ id: users.id });
+      // The audit trail says where the first administrator came from (no one was signed in).
+      await tx.insert(auditLog).values({ userId: created!.id, actorEmail: address, action: "user.admin_created", entityType: "user", entityId: created!.id, detail: { via: "npm run admin:create" } });
+    });
     console.log(`Site administrator ${email} created. Sign in, open a project's Members page, and invite the others.`);
   } finally {
     await handle.close();

@@ -4,7 +4,7 @@ import os from "node:os";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { openDatabase } from "@/db/client";
-import { users } from "@/db/schema";
+import { auditLog, users } from "@/db/schema";
 import { verifyPassword } from "@/lib/auth/password";
 
 const ROOT = path.resolve(import.meta.dirname, "../..");
@@ -40,6 +40,8 @@ describe("npm run admin:create", () => {
       expect(rows.map((u) => ({ email: u.email, isAdmin: u.isAdmin, name: u.name }))).toEqual([{ email: "first@example.test", isAdmin: true, name: "First Admin" }]);
       expect(await verifyPassword(rows[0]!.passwordHash, "a long enough secret")).toBe(true);
       expect(await verifyPassword(rows[0]!.passwordHash, "airtally-demo")).toBe(false);
+      const audit = await handle.db.select().from(auditLog);
+      expect(audit.map((a) => ({ action: a.action, actorEmail: a.actorEmail, userId: a.userId }))).toEqual([{ action: "user.admin_created", actorEmail: "first@example.test", userId: rows[0]!.id }]);
     } finally {
       await handle.close();
     }
