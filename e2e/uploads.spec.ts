@@ -44,6 +44,8 @@ test("a technician attaches a photo from a file on the Field work page and sees 
   await expect(row.getByText('"exhaust-port.jpg" saved.')).toBeVisible();
   const thumb = row.getByRole("list", { name: "Photos of X1" }).getByRole("img");
   await expect(thumb).toHaveCount(1);
+  // Thumbnails load lazily: bring the row's into view, as the technician scrolling to it would.
+  await thumb.scrollIntoViewIfNeeded();
   await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(480);
   await expect(row.getByText("1 photo of this location")).toBeVisible();
   await expectNoAxeViolations(page);
