@@ -32,7 +32,7 @@ export function InstrumentCertificate({ instrumentId, serial, initial, canAttach
               <img src={current.thumbUrl} alt={`Calibration certificate of ${serial}`} width={128} height={96} className="h-24 w-32 object-cover" />
             </a>
           )}
-          <div className="grid gap-1">
+          <div className="grid min-w-0 flex-1 basis-64 gap-1">
             <p>
               <span className="font-semibold [overflow-wrap:anywhere]">{current.fileName || "Certificate"}</span>{" "}
               <span className="text-ink-soft">

@@ -32,31 +32,34 @@ export function SectionPhotos({ projectId, sectionId, sectionTag, currentUserId,
   }
 
   return (
-    <div className="grid gap-2">
-      <p className="text-sm text-ink-muted">
-        {photos.isPending ? "Loading photos…" : photos.isError ? "Photos could not be loaded." : list.length === 0 ? "No photo of this location yet." : `${list.length} photo${list.length === 1 ? "" : "s"} of this location`}
-      </p>
-      <PhotoGallery
-        photos={list}
-        label={`Photos of ${sectionTag}`}
-        canRemove={(p) => canAdd && !locked && p.takenBy === currentUserId}
-        onRemove={onRemove}
-        removing={remove.isPending ? (remove.variables?.id ?? null) : null}
-      />
+    <div className="grid gap-1">
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <p className="text-sm text-ink-muted">
+          {photos.isPending ? "Loading photos…" : photos.isError ? "Photos could not be loaded." : list.length === 0 ? "No photo of this location yet." : `${list.length} photo${list.length === 1 ? "" : "s"} of this location`}
+        </p>
+        <PhotoGallery
+          photos={list}
+          label={`Photos of ${sectionTag}`}
+          canRemove={(p) => canAdd && !locked && p.takenBy === currentUserId}
+          onRemove={onRemove}
+          removing={remove.isPending ? (remove.variables?.id ?? null) : null}
+        />
+        {canAdd && (
+          <UploadButton<{ photo: PhotoItem }>
+            compact
+            url={`/api/v1/projects/${projectId}/sections/${sectionId}/photos`}
+            label={`Add a photo of ${sectionTag}`}
+            accept="image/*"
+            capture="environment"
+            hint="JPEG or PNG, at most 10 MB."
+            onUploaded={() => void client.invalidateQueries({ queryKey: photoKeys(projectId, sectionId) })}
+          />
+        )}
+      </div>
       {error && (
         <p role="alert" className="text-sm font-semibold text-fault">
           {error}
         </p>
-      )}
-      {canAdd && (
-        <UploadButton<{ photo: PhotoItem }>
-          url={`/api/v1/projects/${projectId}/sections/${sectionId}/photos`}
-          label={`Add a photo of ${sectionTag}`}
-          accept="image/*"
-          capture="environment"
-          hint="JPEG or PNG, at most 10 MB."
-          onUploaded={() => void client.invalidateQueries({ queryKey: photoKeys(projectId, sectionId) })}
-        />
       )}
     </div>
   );

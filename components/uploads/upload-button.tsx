@@ -17,13 +17,15 @@ interface Props<T> {
   /** What is accepted, shown under the button. */
   hint?: string;
   onUploaded?: (answer: T) => void;
+  /** A smaller button (still a full touch target) with the hint beside it, for a row among others. */
+  compact?: boolean;
 }
 
 /**
  * A large, gloved-thumb-sized button that picks a file (or opens the camera), uploads it with a
  * visible progress bar, and says plainly what went wrong. The server decides what is accepted.
  */
-export function UploadButton<T>({ url, label, accept, capture, fields = {}, hint, onUploaded }: Props<T>) {
+export function UploadButton<T>({ url, label, accept, capture, fields = {}, hint, onUploaded, compact = false }: Props<T>) {
   const inputId = useId();
   const hintId = useId();
   const input = useRef<HTMLInputElement>(null);
@@ -55,10 +57,10 @@ export function UploadButton<T>({ url, label, accept, capture, fields = {}, hint
 
   const busy = progress !== null;
   return (
-    <div className="grid justify-items-start gap-1">
+    <div className={compact ? "flex flex-wrap items-center gap-x-3 gap-y-1" : "grid justify-items-start gap-1"}>
       <label
         htmlFor={inputId}
-        className={`inline-flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-accent bg-paper-raised px-5 text-base font-semibold text-accent-strong hover:bg-accent-soft focus-within:outline focus-within:outline-3 focus-within:outline-offset-2 focus-within:outline-accent ${busy ? "pointer-events-none opacity-60" : ""}`}
+        className={`inline-flex cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-accent bg-paper-raised font-semibold text-accent-strong hover:bg-accent-soft focus-within:outline focus-within:outline-3 focus-within:outline-offset-2 focus-within:outline-accent ${compact ? "min-h-touch px-3 text-sm" : "min-h-14 px-5 text-base"} ${busy ? "pointer-events-none opacity-60" : ""}`}
       >
         <svg viewBox="0 0 24 24" width="22" height="22" aria-hidden="true">
           <path d="M4 8h3l2-3h6l2 3h3v11H4z" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinejoin="round" />
