@@ -1,8 +1,8 @@
 /** @type {import('next').NextConfig} */
 const nextConfig = {
-  // PGlite loads its WebAssembly and data files from its own package folder at run time,
-  // and argon2 is a native addon: both must stay outside the server bundle.
-  serverExternalPackages: ["@electric-sql/pglite", "@node-rs/argon2", "pg"],
+  // PGlite loads its WebAssembly and data files from its own package folder at run time, argon2
+  // and sharp are native addons; the mail, storage and multipart libraries run as Node modules.
+  serverExternalPackages: ["@electric-sql/pglite", "@node-rs/argon2", "pg", "sharp", "nodemailer", "@aws-sdk/client-s3", "busboy"],
   poweredByHeader: false,
   reactStrictMode: true,
   async headers() {

@@ -1,5 +1,6 @@
 import { execFileSync } from "node:child_process";
 import crypto from "node:crypto";
+import path from "node:path";
 import { defineConfig } from "@playwright/test";
 
 // Workers load this file again: keep the port and secret chosen by the first load.
@@ -8,6 +9,10 @@ process.env.AIRTALLY_E2E_PORT ??= execFileSync(process.execPath, [
   "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})",
 ]).toString();
 process.env.AIRTALLY_E2E_SECRET ??= crypto.randomBytes(32).toString("base64url");
+
+// A data directory of this checkout's own, wiped and seeded before every run (e2e/support/prepare-data.ts).
+process.env.AIRTALLY_E2E_DATA_DIR ??= path.join(import.meta.dirname, ".data", "e2e");
+const dataDir = process.env.AIRTALLY_E2E_DATA_DIR;
 
 const port = Number(process.env.AIRTALLY_E2E_PORT);
 export const baseURL = `http://127.0.0.1:${port}`;
@@ -42,10 +47,11 @@ export default defineConfig({
     { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
   ],
   webServer: {
-    // The production build (rebuilt when sources changed) on a throwaway in-memory database with the demo seed.
-    command: "node_modules/.bin/tsx lib/cli/serve.ts --demo",
+    // A fresh data directory with the demo and one issued report, then the production build (rebuilt when
+    // sources changed) through the launcher, which also runs the local object store.
+    command: "NODE_OPTIONS=--conditions=react-server node_modules/.bin/tsx e2e/support/prepare-data.ts && node_modules/.bin/tsx lib/cli/serve.ts --demo",
     url: `${baseURL}/api/health`,
-    env: { PORT: String(port), AIRTALLY_DATA_DIR: "memory://", AIRTALLY_SESSION_SECRET: process.env.AIRTALLY_E2E_SECRET },
+    env: { PORT: String(port), AIRTALLY_DATA_DIR: dataDir, AIRTALLY_SESSION_SECRET: process.env.AIRTALLY_E2E_SECRET, AIRTALLY_PUBLIC_URL: baseURL },
     timeout: 420_000,
     reuseExistingServer: false,
     stdout: "pipe",

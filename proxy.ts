@@ -17,7 +17,8 @@ function contentSecurityPolicy(nonce: string, https: boolean): string {
     // attributes cannot run script; scripts stay nonce-only. Charts draw on <canvas> and set
     // sizes through the CSSOM, which the policy does not restrict.
     "style-src 'self' 'unsafe-inline'",
-    "img-src 'self' data: blob:",
+    // Images come from our own routes only (photo and certificate thumbnails behind the session).
+    "img-src 'self'",
     "font-src 'self'",
     "connect-src 'self'",
     "worker-src 'self' blob:",

@@ -59,6 +59,19 @@ function readRecord(file: string): LockRecord | null {
   }
 }
 
+/**
+ * The record of the process holding the advisory lock. It takes the lock first and writes its record
+ * just after, so a process refused in between waits a moment (at most a second) to name it.
+ */
+function recordOfHolder(recordPath: string): LockRecord | null {
+  const pause = new Int32Array(new SharedArrayBuffer(4));
+  for (let waited = 0; ; waited += 50) {
+    const found = readRecord(recordPath);
+    if (found || waited >= 1_000) return found;
+    Atomics.wait(pause, 0, 0, 50);
+  }
+}
+
 function describe(record: LockRecord | null): string {
   if (!record) return "another process";
   const by = record.launcherPid ? `process ${record.pid} (started by ${record.launcherPid})` : `process ${record.pid}`;
@@ -107,7 +120,7 @@ export function lockDataDir(dataDir: string): DataDirLock {
   if (flocked === "busy") {
     fs.closeSync(fd);
     throw new DataDirLockedError(
-      `The data directory ${dir} is in use by ${describe(readRecord(recordPath))} (a running Airtally server or script). ` +
+      `The data directory ${dir} is in use by ${describe(recordOfHolder(recordPath))} (a running Airtally server or script). ` +
         `Stop it first, or point AIRTALLY_DATA_DIR at another directory.`,
     );
   }

@@ -548,3 +548,230 @@ export type Instrument = typeof instruments.$inferSelect;
 export type OperatingConditions = typeof operatingConditions.$inferSelect;
 export type TerminalSet = typeof terminalSets.$inferSelect;
 export type TerminalReading = typeof terminalReadings.$inferSelect;
+
+// ── E-mail, notifications, invitations, the TAB supervisor, uploads and issued reports ──────────────
+
+/** What a notification or e-mail is about; the review workflow, report issue and invitations. */
+export const notificationKind = pgEnum("notification_kind", [
+  "traverse.submitted",
+  "traverse.returned",
+  "traverse.approved",
+  "terminal_set.submitted",
+  "terminal_set.returned",
+  "terminal_set.approved",
+  "report.issued",
+  "invitation",
+  "member.added",
+]);
+/**
+ * An e-mail's way out: "outbox" is kept here only (no SMTP_URL: the local fake); "queued" waits for the
+ * delivery worker, "sending" is claimed by one, "sent" went to the SMTP server, "failed" gave up.
+ */
+export const mailStatus = pgEnum("mail_status", ["outbox", "queued", "sending", "sent", "failed"]);
+export const reportStatus = pgEnum("report_status", ["issued"]);
+
+export type NotificationKind = (typeof notificationKind.enumValues)[number];
+export type MailStatus = (typeof mailStatus.enumValues)[number];
+
+/** Every e-mail the app sends, kept whether or not an SMTP server delivers it (the outbox). */
+export const mailMessages = pgTable(
+  "mail_messages",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id").references(() => projects.id, { onDelete: "set null" }),
+    kind: notificationKind("kind").notNull(),
+    toAddress: text("to_address").notNull(),
+    toName: text("to_name").notNull().default(""),
+    subject: text("subject").notNull(),
+    text: text("text").notNull(),
+    html: text("html").notNull(),
+    status: mailStatus("status").notNull(),
+    attempts: integer("attempts").notNull().default(0),
+    nextAttemptAt: timestamp("next_attempt_at", { withTimezone: true }).notNull().defaultNow(),
+    lastError: text("last_error").notNull().default(""),
+    messageId: text("message_id"),
+    createdAt: createdAt(),
+    sentAt: timestamp("sent_at", { withTimezone: true }),
+  },
+  (t) => [index("mail_messages_status_idx").on(t.status, t.nextAttemptAt), index("mail_messages_created_idx").on(t.createdAt)],
+);
+
+/** In-app notices, one per recipient: what happened, where to look, and whether they have read it. */
+export const notifications = pgTable(
+  "notifications",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    projectId: uuid("project_id").references(() => projects.id, { onDelete: "cascade" }),
+    kind: notificationKind("kind").notNull(),
+    message: text("message").notNull(),
+    link: text("link").notNull().default(""),
+    readAt: timestamp("read_at", { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("notifications_user_idx").on(t.userId, t.createdAt)],
+);
+
+/**
+ * An invitation to join a project with a role. The link carries `<id>.<secret>`; only the SHA-256 of
+ * the secret is stored. Single use, and it expires.
+ */
+export const invitations = pgTable(
+  "invitations",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    email: text("email").notNull(),
+    role: memberRole("role").notNull(),
+    tokenHash: text("token_hash").notNull(),
+    invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    acceptedAt: timestamp("accepted_at", { withTimezone: true }),
+    acceptedBy: uuid("accepted_by").references(() => users.id, { onDelete: "set null" }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  },
+  (t) => [
+    index("invitations_project_idx").on(t.projectId),
+    // One open invitation per address and project; inviting again replaces it.
+    uniqueIndex("invitations_open_idx")
+      .on(t.projectId, sql`lower(${t.email})`)
+      .where(sql`${t.acceptedAt} is null and ${t.revokedAt} is null`),
+  ],
+);
+
+/** The project's certified TAB supervisor: a technician member, with the body that certified them. */
+export const projectSupervisors = pgTable("project_supervisors", {
+  projectId: uuid("project_id")
+    .primaryKey()
+    .references(() => projects.id, { onDelete: "cascade" }),
+  userId: uuid("user_id")
+    .notNull()
+    .references(() => users.id, { onDelete: "cascade" }),
+  certifyingBody: text("certifying_body").notNull(),
+  certificateNumber: text("certificate_number").notNull(),
+  designatedBy: uuid("designated_by").references(() => users.id, { onDelete: "set null" }),
+  designatedAt: timestamp("designated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/**
+ * The supervisor's signed certification statement, as signed: name, certification and the exact
+ * words, kept even if the designation changes later. A person's statement, separate from the
+ * server's signature on the report file.
+ */
+export const supervisorSignatures = pgTable(
+  "supervisor_signatures",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    userId: uuid("user_id").references(() => users.id, { onDelete: "set null" }),
+    name: text("name").notNull(),
+    certifyingBody: text("certifying_body").notNull(),
+    certificateNumber: text("certificate_number").notNull(),
+    statement: text("statement").notNull(),
+    signedAt: timestamp("signed_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("supervisor_signatures_project_idx").on(t.projectId, t.signedAt)],
+);
+
+/** A photo of a traverse location (a duct section), optionally of one traverse; the bytes live in object storage. */
+export const photos = pgTable(
+  "photos",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    sectionId: uuid("section_id")
+      .notNull()
+      .references(() => ductSections.id, { onDelete: "cascade" }),
+    traverseId: uuid("traverse_id").references(() => traverses.id, { onDelete: "set null" }),
+    objectKey: text("object_key").notNull().unique(),
+    thumbKey: text("thumb_key"),
+    contentType: text("content_type").notNull(),
+    bytes: integer("bytes").notNull(),
+    width: integer("width"),
+    height: integer("height"),
+    fileName: text("file_name").notNull().default(""),
+    caption: text("caption").notNull().default(""),
+    takenBy: uuid("taken_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("photos_section_idx").on(t.sectionId, t.createdAt)],
+);
+
+/** An instrument's calibration certificate (PDF or image); the newest one is current, older ones stay. */
+export const instrumentCertificates = pgTable(
+  "instrument_certificates",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    instrumentId: uuid("instrument_id")
+      .notNull()
+      .references(() => instruments.id, { onDelete: "cascade" }),
+    objectKey: text("object_key").notNull().unique(),
+    thumbKey: text("thumb_key"),
+    contentType: text("content_type").notNull(),
+    bytes: integer("bytes").notNull(),
+    fileName: text("file_name").notNull().default(""),
+    uploadedBy: uuid("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("instrument_certificates_instrument_idx").on(t.instrumentId, t.createdAt)],
+);
+
+export interface ReportSigner {
+  userId?: string | null;
+  name: string;
+  /** What they approved as, in words (e.g. "Commissioning agent", "Engineer of record", "TAB supervisor"). */
+  role: string;
+  /** ISO 8601 time of their approval or signature in the app. */
+  at: string;
+}
+
+/**
+ * An issued closeout report: the SHA-256 of its exact bytes, the deployment's Ed25519 signature over
+ * them, the public key that checks it, and where the PDF lives. Never changed after issue (a trigger
+ * allows only marking it superseded, once); a new revision supersedes it.
+ */
+export const reports = pgTable(
+  "reports",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "restrict" }),
+    revision: integer("revision").notNull(),
+    status: reportStatus("status").notNull().default("issued"),
+    code: text("code").notNull().unique(),
+    sha256: text("sha256").notNull(),
+    signature: text("signature").notNull(),
+    publicKeyPem: text("public_key_pem").notNull(),
+    keyId: text("key_id").notNull(),
+    objectKey: text("object_key").notNull().unique(),
+    bytes: integer("bytes").notNull(),
+    fileName: text("file_name").notNull(),
+    issuedAt: timestamp("issued_at", { withTimezone: true }).notNull().defaultNow(),
+    issuedBy: uuid("issued_by").references(() => users.id, { onDelete: "set null" }),
+    issuedByName: text("issued_by_name").notNull(),
+    signers: jsonb("signers").$type<ReportSigner[]>().notNull(),
+    reason: text("reason").notNull().default(""),
+    supersededBy: uuid("superseded_by").references((): AnyPgColumn => reports.id),
+    supersededAt: timestamp("superseded_at", { withTimezone: true }),
+  },
+  (t) => [uniqueIndex("reports_project_revision_idx").on(t.projectId, t.revision), index("reports_sha256_idx").on(t.sha256)],
+);
+
+export type MailMessage = typeof mailMessages.$inferSelect;
+export type Notification = typeof notifications.$inferSelect;
+export type Invitation = typeof invitations.$inferSelect;
+export type ProjectSupervisor = typeof projectSupervisors.$inferSelect;
+export type SupervisorSignature = typeof supervisorSignatures.$inferSelect;
+export type Photo = typeof photos.$inferSelect;
+export type InstrumentCertificate = typeof instrumentCertificates.$inferSelect;
+export type Report = typeof reports.$inferSelect;

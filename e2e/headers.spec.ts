@@ -1,5 +1,5 @@
 import { expect, test, type Page } from "@playwright/test";
-import { SignInPage } from "./pages/sign-in-page";
+import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
 
 /** Collects every CSP violation a page reports, from the DOM event and from the console. */
 async function watchCsp(page: Page): Promise<string[]> {
@@ -46,18 +46,44 @@ for (const email of ACCOUNTS) {
     await expect(nav).toBeVisible();
     const tabs = await nav.getByRole("link").all();
     const hrefs = await Promise.all(tabs.map((t) => t.getAttribute("href")));
+    // The header's own screens too: instruments, notifications, the outbox for site administrators.
+    const header = await page.getByRole("navigation", { name: "Main" }).getByRole("link").all();
+    hrefs.push(...(await Promise.all(header.map((t) => t.getAttribute("href")))));
     for (const href of hrefs) {
       await page.goto(href!);
       await expect(page.getByRole("main").first()).toBeVisible();
       // Client navigation and hydration too: the unit switch re-renders with React.
       await page.waitForLoadState("networkidle");
     }
+    // One instrument's own page, with its calibration certificate.
+    await page.goto("/instruments");
+    await page.getByRole("table").getByRole("link").first().click();
+    await expect(page.getByRole("heading", { name: "Calibration certificate" })).toBeVisible();
+    await page.waitForLoadState("networkidle");
     await page.goto("/sign-out");
     await page.goto("/projects/00000000-0000-4000-8000-000000000000");
     await page.waitForLoadState("networkidle");
     expect(violations).toEqual([]);
   });
 }
+
+test("the public screens (report verification, an invitation link) break no policy", async ({ page, playwright, baseURL }) => {
+  // The verification code of the report issued before the run (e2e/support/prepare-data.ts).
+  const api = await playwright.request.newContext({ baseURL });
+  expect((await api.post("/api/auth/sign-in", { data: { email: "owner@example.test", password: DEMO_PASSWORD } })).status()).toBe(204);
+  const { projects } = (await (await api.get("/api/v1/projects")).json()) as { projects: { id: string; name: string }[] };
+  const library = projects.find((p) => p.name.startsWith("Wrenfield Library"))!;
+  const { reports } = (await (await api.get(`/api/v1/projects/${library.id}/reports`)).json()) as { reports: { code: string }[] };
+  await api.dispose();
+
+  const violations = await watchCsp(page);
+  for (const path of ["/verify", `/verify/${reports[0]!.code}`, "/invite/not-an-invitation-link"]) {
+    await page.goto(path);
+    await expect(page.getByRole("main").first()).toBeVisible();
+    await page.waitForLoadState("networkidle");
+  }
+  expect(violations).toEqual([]);
+});
 
 test("the sign-in screen and a failed sign-in break no policy", async ({ page }) => {
   const violations = await watchCsp(page);

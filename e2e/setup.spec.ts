@@ -33,6 +33,8 @@ async function expectTouchTargets(page: Page) {
 const CFM = 4.719474432e-4;
 
 test("an engineer creates a project with its duct tree and terminals by form, typing in cfm and inches", async ({ page }) => {
+  // About twenty saves and page loads in one journey: 20 s alone, more beside the other journeys on a busy machine.
+  test.setTimeout(60_000);
   const setup = new SetupPage(page);
   const name = `Harbour Lofts ${Date.now().toString(36)}`;
   await signIn(page, "engineer@example.test");

@@ -15,7 +15,7 @@ const PROJECT_NAV: { path: string; label: string; action: Action }[] = [
   { path: "/review", label: "Review", action: "traverse.review" },
   { path: "/systems", label: "Design vs measured", action: "design.edit" },
   { path: "/reports", label: "Reports", action: "report.download" },
-  { path: "/members", label: "Members", action: "members.manage" },
+  { path: "/members", label: "Members", action: "members.view" },
 ];
 
 /** The project tabs a role sees: its own work. Hiding a link is cosmetic; every route checks again. */

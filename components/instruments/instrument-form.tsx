@@ -240,7 +240,7 @@ export function InstrumentForm({ units, instrument, kindLocked = false }: { unit
         <legend className="mb-2 text-lg font-semibold">Calibration</legend>
         {field("calibratedOn", "Calibrated on", { type: "date" })}
         {field("calibrationDueOn", "Calibration due", { type: "date", hint: "The last day it may be used; past it, readings need a stated reason." })}
-        {field("certificateNumber", "Certificate number", { hint: "From the laboratory's certificate. The certificate file itself is not stored here yet." })}
+        {field("certificateNumber", "Certificate number", { hint: "From the laboratory's certificate; attach the file itself under Calibration certificate on the instrument's page." })}
       </fieldset>
 
       {(info.measure || info.probeFields || info.hoodFields) && (

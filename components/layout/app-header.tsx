@@ -1,11 +1,12 @@
 import Link from "next/link";
-import type { SessionUser } from "@/db/queries/users";
 import { PendingChanges } from "@/components/offline/sync-status";
+import type { SessionUser } from "@/db/queries/users";
+import { NotificationBell } from "./notification-bell";
 import { SignOutButton } from "./sign-out-button";
 import { UnitSwitch } from "./unit-switch";
 import { Wordmark } from "./wordmark";
 
-export function AppHeader({ user }: { user: SessionUser }) {
+export function AppHeader({ user, unread }: { user: SessionUser; unread: number }) {
   return (
     <header className="bg-ink text-white">
       <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-3 px-gutter py-2">
@@ -19,6 +20,12 @@ export function AppHeader({ user }: { user: SessionUser }) {
           <Link href="/instruments" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
             Instruments
           </Link>
+          {user.isAdmin && (
+            <Link href="/admin/outbox" className="flex min-h-touch items-center rounded-card px-3 font-semibold hover:bg-ink-soft">
+              Outbox
+            </Link>
+          )}
+          <NotificationBell initialUnread={unread} />
         </nav>
         <PendingChanges />
         <div className="flex flex-wrap items-center gap-3">

@@ -29,6 +29,17 @@ export interface Endpoint {
    * only the refusals (signed out, foreign origin); e2e/sessions.spec.ts covers the rest.
    */
   endsSessions?: boolean;
+  /**
+   * True for calls that no unknown id or invalid body makes harmless (ending the TAB supervisor's
+   * designation names no child): the matrix checks only the refusals, so it changes nothing in the
+   * demo; the route's own tests and journeys cover the rest.
+   */
+  changesDemo?: boolean;
+  /**
+   * The status an allowed caller gets on the demo's second project (the clinic) when it differs
+   * from `ok` because the demo holds none of what the row reads there (no issued report).
+   */
+  okOnSecondProject?: number;
 }
 
 /** An id that no row has: callers the policy allows get 404 for the row, others 403 or the project's 404. */
@@ -104,6 +115,41 @@ export const ENDPOINTS: Endpoint[] = [
   { method: "GET", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "project.view" }, ok: 404 },
   { method: "POST", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "terminal.record" }, body: {}, ok: 404 },
   { method: "GET", route: "/api/v1/projects/[projectId]/terminal-readings", path: "/api/v1/projects/{projectId}/terminal-readings", rule: { action: "project.view" }, ok: 200 },
+  { method: "GET", route: "/api/v1/instruments/[instrumentId]/certificate", path: `/api/v1/instruments/${UNKNOWN_ID}/certificate`, rule: { outsideProject: "signed-in" }, ok: 404 },
+  // The instrument is looked up before the file is read: an unknown one is refused without a body.
+  { method: "POST", route: "/api/v1/instruments/[instrumentId]/certificate", path: `/api/v1/instruments/${UNKNOWN_ID}/certificate`, rule: { outsideProject: "signed-in" }, only: REGISTER_KEEPERS, ok: 404 },
+  // People: members, invitations, the TAB supervisor. Unknown ids and incomplete bodies change nothing.
+  { method: "GET", route: "/api/v1/projects/[projectId]/members", path: "/api/v1/projects/{projectId}/members", rule: { action: "members.view" }, ok: 200 },
+  ...(["PATCH", "DELETE"] as const).map(
+    (method): Endpoint => ({ method, route: "/api/v1/projects/[projectId]/members/[userId]", path: `/api/v1/projects/{projectId}/members/${UNKNOWN_ID}`, rule: { action: "members.invite" }, body: method === "PATCH" ? { role: "owner" } : undefined, ok: 404 }),
+  ),
+  { method: "GET", route: "/api/v1/projects/[projectId]/invitations", path: "/api/v1/projects/{projectId}/invitations", rule: { action: "members.invite" }, ok: 200 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/invitations", path: "/api/v1/projects/{projectId}/invitations", rule: { action: "members.invite" }, body: { role: "owner" }, ok: 400 },
+  { method: "DELETE", route: "/api/v1/projects/[projectId]/invitations/[invitationId]", path: `/api/v1/projects/{projectId}/invitations/${UNKNOWN_ID}`, rule: { action: "members.invite" }, ok: 404 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/supervisor", path: "/api/v1/projects/{projectId}/supervisor", rule: { action: "members.view" }, ok: 200 },
+  { method: "PUT", route: "/api/v1/projects/[projectId]/supervisor", path: "/api/v1/projects/{projectId}/supervisor", rule: { action: "members.invite" }, body: { certificateNumber: "x" }, ok: 400 },
+  { method: "DELETE", route: "/api/v1/projects/[projectId]/supervisor", path: "/api/v1/projects/{projectId}/supervisor", rule: { action: "members.invite" }, ok: 204, changesDemo: true },
+  { method: "POST", route: "/api/v1/projects/[projectId]/supervisor/signature", path: "/api/v1/projects/{projectId}/supervisor/signature", rule: { action: "supervisor.sign" }, body: { confirm: true }, ok: 400 },
+  { method: "GET", route: "/api/v1/invitations/[token]", path: "/api/v1/invitations/not-an-invitation-link", rule: { outsideProject: "public" }, ok: 404 },
+  { method: "POST", route: "/api/v1/invitations/[token]/accept", path: "/api/v1/invitations/not-an-invitation-link/accept", rule: { outsideProject: "public" }, body: {}, ok: 400 },
+  // Notifications and the outbox.
+  { method: "GET", route: "/api/v1/notifications", path: "/api/v1/notifications?limit=1", rule: { outsideProject: "signed-in" }, ok: 200 },
+  { method: "POST", route: "/api/v1/notifications/read", path: "/api/v1/notifications/read", rule: { outsideProject: "signed-in" }, body: { ids: [UNKNOWN_ID] }, ok: 200 },
+  { method: "GET", route: "/api/v1/admin/outbox", path: "/api/v1/admin/outbox?limit=1", rule: { outsideProject: "signed-in" }, only: { admins: true, rolesAnywhere: [] }, ok: 200 },
+  // Photos of traverse locations: the section and photo are looked up before any file is read.
+  { method: "GET", route: "/api/v1/projects/[projectId]/sections/[sectionId]/photos", path: `/api/v1/projects/{projectId}/sections/${UNKNOWN_ID}/photos`, rule: { action: "project.view" }, ok: 404 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/sections/[sectionId]/photos", path: `/api/v1/projects/{projectId}/sections/${UNKNOWN_ID}/photos`, rule: { action: "photo.add" }, ok: 404 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/sections/[sectionId]/photos/[photoId]", path: `/api/v1/projects/{projectId}/sections/${UNKNOWN_ID}/photos/${UNKNOWN_ID}`, rule: { action: "project.view" }, ok: 404 },
+  { method: "DELETE", route: "/api/v1/projects/[projectId]/sections/[sectionId]/photos/[photoId]", path: `/api/v1/projects/{projectId}/sections/${UNKNOWN_ID}/photos/${UNKNOWN_ID}`, rule: { action: "photo.add" }, ok: 404 },
+  // Issued reports: the demo's library has one (e2e/support/prepare-data.ts), the clinic none.
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports", path: "/api/v1/projects/{projectId}/reports", rule: { action: "report.download" }, ok: 200 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports/latest.pdf", path: "/api/v1/projects/{projectId}/reports/latest.pdf", rule: { action: "report.download" }, ok: 200, okOnSecondProject: 404 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports/[reportId]/pdf", path: `/api/v1/projects/{projectId}/reports/${UNKNOWN_ID}/pdf`, rule: { action: "report.download" }, ok: 404 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports/[reportId]/signature", path: `/api/v1/projects/{projectId}/reports/${UNKNOWN_ID}/signature`, rule: { action: "report.download" }, ok: 404 },
+  // Verification is public; a JSON body is not the multipart file it reads.
+  { method: "POST", route: "/api/v1/reports/verify", path: "/api/v1/reports/verify", rule: { outsideProject: "public" }, body: {}, ok: 415 },
+  { method: "GET", route: "/api/v1/reports/public-key", path: "/api/v1/reports/public-key", rule: { outsideProject: "public" }, ok: 200 },
+  { method: "GET", route: "/api/v1/reports/[code]/signature", path: "/api/v1/reports/0000-0000-0000/signature", rule: { outsideProject: "public" }, ok: 404 },
   ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
     (method): Endpoint => ({ method, route: "/api/[...path]", path: "/api/v1/no-such-endpoint", rule: { outsideProject: "public" }, body: method === "GET" ? undefined : {}, ok: 404 }),
   ),

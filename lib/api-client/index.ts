@@ -14,6 +14,7 @@ export class ApiError extends Error {
   }
 }
 
+/** A JSON call to our API; throws ApiError with the server's message and field errors. */
 export async function call<T>(path: string, init?: RequestInit): Promise<T> {
   let res: Response;
   try {

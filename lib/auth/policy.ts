@@ -18,6 +18,10 @@ export const ACTIONS = [
   "report.issue",
   "report.download",
   "members.manage",
+  "members.view",
+  "members.invite",
+  "supervisor.sign",
+  "photo.add",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -38,11 +42,27 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "deviation.accept": ["engineer"],
   "report.issue": ["commissioning_agent"],
   "report.download": ALL,
+  // Changing or removing an engineer of record, and anything about oneself, stays with site administrators.
   "members.manage": [],
+  "members.view": ALL,
+  // Invite people, change roles, remove members, designate the TAB supervisor.
+  "members.invite": ["engineer"],
+  // Only the designated supervisor signs; the handler also checks it is them.
+  "supervisor.sign": ["technician"],
+  "photo.add": ["technician"],
 };
 
 /** Site-wide administrators set projects up (settings, design, people) and may look at everything, but take no readings and sign nothing. */
-const ADMIN_ACTIONS: ReadonlySet<Action> = new Set(["project.view", "project.edit", "design.view", "design.edit", "report.download", "members.manage"]);
+const ADMIN_ACTIONS: ReadonlySet<Action> = new Set([
+  "project.view",
+  "project.edit",
+  "design.view",
+  "design.edit",
+  "report.download",
+  "members.manage",
+  "members.view",
+  "members.invite",
+]);
 
 export interface Actor {
   isAdmin: boolean;
@@ -90,6 +110,21 @@ export const ROUTES_OUTSIDE_PROJECTS: Record<string, "public" | "signed-in"> = {
   "GET /api/v1/instruments/[instrumentId]": "signed-in",
   "PATCH /api/v1/instruments/[instrumentId]": "signed-in",
   "DELETE /api/v1/instruments/[instrumentId]": "signed-in",
+  // Calibration certificates belong to the register: read by everyone signed in, attached by its keepers (checked in the handler).
+  "GET /api/v1/instruments/[instrumentId]/certificate": "signed-in",
+  "POST /api/v1/instruments/[instrumentId]/certificate": "signed-in",
+  // Each user's own notifications.
+  "GET /api/v1/notifications": "signed-in",
+  "POST /api/v1/notifications/read": "signed-in",
+  // Every e-mail written: site administrators only (checked in the handler).
+  "GET /api/v1/admin/outbox": "signed-in",
+  // Invitation links are used before an account exists: the token is the credential.
+  "GET /api/v1/invitations/[token]": "public",
+  "POST /api/v1/invitations/[token]/accept": "public",
+  // Anyone may check an issued report, with the deployment's public key and a report's signature.
+  "POST /api/v1/reports/verify": "public",
+  "GET /api/v1/reports/public-key": "public",
+  "GET /api/v1/reports/[code]/signature": "public",
   // The API description holds no data.
   "GET /api/v1/openapi.json": "public",
   "PATCH /api/v1/me": "signed-in",

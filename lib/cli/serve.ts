@@ -6,7 +6,10 @@
  *                     a session secret generated into the data directory if none is set
  *   npm start       → production: AIRTALLY_SESSION_SECRET is required
  *
- * Environment: PORT (3000), AIRTALLY_DATA_DIR (.data), DATABASE_URL (PostgreSQL instead of PGlite).
+ * Environment: PORT (3000), AIRTALLY_DATA_DIR (.data), DATABASE_URL (PostgreSQL instead of PGlite),
+ * S3_* (object storage; without them a local S3-compatible store runs on loopback beside the server,
+ * its files in <data dir>/objects, started and stopped here), SMTP_URL, AIRTALLY_PUBLIC_URL.
+ * Only demo mode creates the demo accounts: production starts with none (`npm run admin:create`).
  */
 import { spawn, spawnSync } from "node:child_process";
 import crypto from "node:crypto";
@@ -15,6 +18,9 @@ import path from "node:path";
 import { defaultDataDir } from "@/db/client";
 import { LOCK_DIR_ENV, LOCK_FD_ENV, lockDataDir, type DataDirLock } from "@/db/lock";
 import { MissingSecretError, resolveSessionSecret, SECRET_ENV } from "@/lib/auth/secret";
+import { storageConfigFromEnv } from "@/lib/server/storage";
+import { launcherEnv } from "./launcher-env";
+import { startLocalObjectStore, type LocalObjectStore } from "./local-object-store";
 
 const root = process.cwd();
 const demo = process.argv.includes("--demo");
@@ -82,9 +88,7 @@ async function waitForHealth(child: ReturnType<typeof spawn>): Promise<void> {
 
 async function main() {
   if (!Number.isInteger(port) || port < 1 || port > 65535) fail(`PORT must be a whole number from 1 to 65535; it is "${process.env.PORT}".`);
-  // Sites often have no internet: do not let the framework try to send usage telemetry.
-  const env: NodeJS.ProcessEnv = { NEXT_TELEMETRY_DISABLED: "1", ...process.env, NODE_ENV: "production", PORT: String(port) };
-  if (demo) env.AIRTALLY_DEMO = "1";
+  const env = launcherEnv({ demo, port, env: process.env });
   const dataDir = defaultDataDir();
 
   // Take the data directory now and keep it through the build until the server exits: the server
@@ -104,6 +108,7 @@ async function main() {
   try {
     // The secret rules read the mode from the environment, as the server will.
     Object.assign(process.env, { NODE_ENV: "production" }, demo ? { AIRTALLY_DEMO: "1" } : {});
+    if (!demo) delete process.env.AIRTALLY_DEMO;
     env[SECRET_ENV] = resolveSessionSecret(dataDir);
   } catch (err) {
     if (err instanceof MissingSecretError) fail(err.message);
@@ -112,6 +117,14 @@ async function main() {
 
   ensureBuild(env);
 
+  let store: LocalObjectStore | undefined;
+  if (!storageConfigFromEnv(env)) {
+    store = await startLocalObjectStore({ dataDir });
+    Object.assign(env, store.env);
+    console.log(`No S3_BUCKET set: uploads and reports go to a local S3-compatible store on ${store.env.S3_ENDPOINT} (files in ${store.directory}).`);
+    if (!demo) console.log("For several app servers, or backups apart from this machine, set S3_ENDPOINT, S3_BUCKET and credentials instead.");
+  }
+
   // The server closes the database itself on SIGTERM/SIGINT (instrumentation.ts), instead of the
   // framework's own handler exiting first.
   env.NEXT_MANUAL_SIG_HANDLE = "1";
@@ -119,13 +132,16 @@ async function main() {
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => child.kill(signal));
   child.on("exit", (code, signal) => {
     releaseLock();
-    process.exit(code ?? (signal ? 128 + (signal === "SIGINT" ? 2 : signal === "SIGKILL" ? 9 : 15) : 0));
+    const status = code ?? (signal ? 128 + (signal === "SIGINT" ? 2 : signal === "SIGKILL" ? 9 : 15) : 0);
+    // The object store outlives the server only long enough to close cleanly.
+    void (store?.stop() ?? Promise.resolve()).finally(() => process.exit(status));
   });
 
   await waitForHealth(child);
   const where = env.DATABASE_URL ? "PostgreSQL (DATABASE_URL)" : `embedded PGlite in ${dataDir}`;
   console.log(`\nAirtally is ready on http://localhost:${port}  (database: ${where})`);
   if (demo) console.log("Demo accounts: tech@, cx@, engineer@, owner@, admin@example.test — password airtally-demo\n");
+  else console.log("No account yet? Create the first site administrator with: npm run admin:create\n");
 }
 
 void main();

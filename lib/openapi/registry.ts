@@ -32,6 +32,7 @@ const ERROR_DESCRIPTIONS: Record<number, string> = {
   401: "Not signed in.",
   403: "Signed in, but the role in this project does not allow it.",
   404: "No such resource in a project the caller belongs to (another project's ids answer the same).",
+  408: "The body took too long to arrive; nothing was kept.",
   409: "Conflicts with the current state (e.g. a stale version); the body says what the state is.",
   413: "The body is larger than this route accepts.",
   415: "The body is not of the content type this route takes.",

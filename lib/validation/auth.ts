@@ -16,13 +16,22 @@ export const preferencesSchema = z
 export type PreferencesInput = z.infer<typeof preferencesSchema>;
 
 /** NIST SP 800-63B §5.1.1.2 asks for at least 8 characters and allows long passphrases; 12 is common practice today. */
+export const PASSWORD_MIN = 12;
+export const PASSWORD_MAX = 200;
+
+/** Every new password (a change, an invitation, the first site administrator): long enough to resist guessing, bounded so hashing stays cheap. */
+export const newPasswordSchema = z
+  .string({ error: "Choose a password." })
+  .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`)
+  .max(PASSWORD_MAX, `Passwords are at most ${PASSWORD_MAX} characters.`);
+
 export const passwordChangeSchema = z
   .object({
-    current_password: z.string({ error: "Enter your current password." }).min(1, "Enter your current password.").max(200),
+    current_password: z.string({ error: "Enter your current password." }).min(1, "Enter your current password.").max(PASSWORD_MAX),
     new_password: z
       .string({ error: "Enter a new password." })
-      .min(12, "Use at least 12 characters for the new password.")
-      .max(200, "Passwords are at most 200 characters."),
+      .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters for the new password.`)
+      .max(PASSWORD_MAX, `Passwords are at most ${PASSWORD_MAX} characters.`),
   })
   .strict()
   .refine((v) => v.current_password !== v.new_password, { path: ["new_password"], message: "The new password must differ from the current one." });

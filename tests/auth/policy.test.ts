@@ -57,10 +57,28 @@ describe("role policy", () => {
 
   it("shows each role its own work in the project navigation", () => {
     const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
-    expect(labels("technician")).toEqual(["Overview", "Field work", "Reports"]);
-    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports"]);
-    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports"]);
-    expect(labels("owner")).toEqual(["Overview", "Reports"]);
+    expect(labels("technician")).toEqual(["Overview", "Field work", "Reports", "Members"]);
+    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports", "Members"]);
+    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
+    expect(labels("owner")).toEqual(["Overview", "Reports", "Members"]);
     expect(labels(null, admin)).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
+  });
+
+  it("lets every member see who is on the project, and the engineer and site administrators manage people", () => {
+    for (const role of ["technician", "commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "members.view")).toBe(true);
+    expect(can(member, "engineer", "members.invite")).toBe(true);
+    for (const role of ["technician", "commissioning_agent", "owner"] as const) expect(can(member, role, "members.invite")).toBe(false);
+    expect(can(admin, null, "members.invite")).toBe(true);
+    // Appointing engineers of record stays with site administrators.
+    expect(can(member, "engineer", "members.manage")).toBe(false);
+  });
+
+  it("lets only technicians attach photos and sign as TAB supervisor; administrators sign nothing", () => {
+    expect(can(member, "technician", "photo.add")).toBe(true);
+    expect(can(member, "engineer", "photo.add")).toBe(false);
+    expect(can(member, "technician", "supervisor.sign")).toBe(true);
+    expect(can(member, "engineer", "supervisor.sign")).toBe(false);
+    expect(can(admin, null, "supervisor.sign")).toBe(false);
+    expect(can(admin, null, "photo.add")).toBe(false);
   });
 });

@@ -66,5 +66,6 @@ describe("field-entry design migration", () => {
       { tag: "EG-1", service: "exhaust", type: "grille" },
       { tag: "SD-1", service: "supply", type: "diffuser" },
     ]);
-  });
+    // Two migration runs on a fresh PGlite: about 25 s on the shared 2-core machine, more when it is busy.
+  }, 120_000);
 });

@@ -15,6 +15,8 @@ export interface CallOptions {
   contentType?: string;
   /** A body sent as it is, as application/json unless `headers` say otherwise (for malformed JSON). */
   rawBody?: string;
+  /** Bytes sent as they are (a multipart upload), as `contentType`. */
+  bytes?: Uint8Array | ReadableStream<Uint8Array>;
   headers?: Record<string, string>;
 }
 
@@ -24,11 +26,11 @@ export interface CallOptions {
  */
 export async function callRoute(
   handler: Handler,
-  { method = "GET", path = "/api/test", params = {}, json, body, text, contentType, rawBody, headers: extra = {} }: CallOptions = {},
+  { method = "GET", path = "/api/test", params = {}, json, body, text, contentType, rawBody, bytes, headers: extra = {} }: CallOptions = {},
   // eslint-disable-next-line @typescript-eslint/no-explicit-any -- tests read whatever JSON the route answers
 ): Promise<{ status: number; body: any; text: string; headers: Headers }> {
   const headers: Record<string, string> = {};
-  let payload: string | undefined;
+  let payload: string | Uint8Array | ReadableStream<Uint8Array> | undefined;
   const value = json ?? body;
   if (value !== undefined) {
     payload = JSON.stringify(value);
@@ -39,8 +41,13 @@ export async function callRoute(
   } else if (rawBody !== undefined) {
     payload = rawBody;
     headers["content-type"] = "application/json";
+  } else if (bytes !== undefined) {
+    payload = bytes;
+    if (contentType) headers["content-type"] = contentType;
+    if (bytes instanceof Uint8Array) headers["content-length"] = String(bytes.byteLength);
   }
-  const req = new NextRequest(new URL(path, "http://localhost"), { method, body: payload, headers: { ...headers, ...extra } });
+  const init = { method, body: payload as BodyInit | undefined, headers: { ...headers, ...extra }, duplex: "half" };
+  const req = new NextRequest(new URL(path, "http://localhost"), init as ConstructorParameters<typeof NextRequest>[1]);
   const res = await handler(req, { params: Promise.resolve(params) });
   const raw = await res.text();
   let parsed: unknown = null;

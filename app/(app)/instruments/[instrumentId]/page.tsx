@@ -4,8 +4,10 @@ import { CalibrationStatus } from "@/components/instruments/calibration-status";
 import { InstrumentActions } from "@/components/instruments/instrument-actions";
 import { InstrumentForm } from "@/components/instruments/instrument-form";
 import { Card } from "@/components/ui/card";
+import { InstrumentCertificate } from "@/components/uploads/instrument-certificate";
 import { formatAccuracy, formatRange } from "@/lib/instruments/units";
 import { formatCalendarDate } from "@/lib/instruments/usability";
+import { currentCertificateForClient } from "@/lib/server/certificates";
 import { instrumentForClient, loadRegisterScreen } from "@/lib/server/instruments-screen";
 
 export const metadata: Metadata = { title: "Instrument" };
@@ -14,6 +16,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ ins
   const { canEdit, units } = await loadRegisterScreen();
   const instrument = await instrumentForClient((await params).instrumentId);
   if (!instrument) notFound();
+  const certificate = await currentCertificateForClient({ instrumentId: instrument.id });
   const used = instrument.usage.traverses + instrument.usage.terminalReadings;
 
   return (
@@ -30,14 +33,9 @@ export default async function InstrumentPage({ params }: { params: Promise<{ ins
         </p>
       </div>
       {canEdit ? (
-        <>
-          <Card title="Details">
-            <InstrumentForm units={units} instrument={instrument} kindLocked={used > 0} />
-          </Card>
-          <Card title={instrument.retiredAt ? "Retired" : "Take out of service"}>
-            <InstrumentActions id={instrument.id} serial={instrument.serial} retired={instrument.retiredAt !== null} used={used > 0} />
-          </Card>
-        </>
+        <Card title="Details">
+          <InstrumentForm units={units} instrument={instrument} kindLocked={used > 0} />
+        </Card>
       ) : (
         <Card title="Details">
           <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[auto_1fr]">
@@ -68,6 +66,14 @@ export default async function InstrumentPage({ params }: { params: Promise<{ ins
             <dt className="font-semibold">Notes</dt>
             <dd>{instrument.notes || "—"}</dd>
           </dl>
+        </Card>
+      )}
+      <Card title="Calibration certificate">
+        <InstrumentCertificate instrumentId={instrument.id} serial={instrument.serial} initial={certificate} canAttach={canEdit} />
+      </Card>
+      {canEdit && (
+        <Card title={instrument.retiredAt ? "Retired" : "Take out of service"}>
+          <InstrumentActions id={instrument.id} serial={instrument.serial} retired={instrument.retiredAt !== null} used={used > 0} />
         </Card>
       )}
     </main>

@@ -5,6 +5,7 @@ import { notFound } from "next/navigation";
 import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
 import { Verdict } from "@/components/ui/status";
+import { getLatestReport } from "@/db/queries/reports";
 import { can } from "@/lib/auth/policy";
 import { FORM_UNITS, formatIn } from "@/lib/design/quantities";
 import { formatQuantity } from "@/lib/units";
@@ -19,6 +20,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
   const screen = await loadAirflowScreen(params, "design.view");
   if (!screen.allowed) notFound();
   const { project, units, systems } = screen;
+  const latestReport = await getLatestReport({ projectId: project.id });
   const setsUp = can(screen.user, screen.access.role, "design.edit");
   const setupLink = (text: string) => (
     <Link href={`/projects/${project.id}/setup`} className="font-semibold text-accent-strong underline underline-offset-4">
@@ -129,7 +131,16 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
           )}
         </Card>
         <Card title="Latest report">
-          <p className="text-ink-soft">No closeout report has been issued for this project yet.</p>
+          {latestReport ? (
+            <p>
+              Revision {latestReport.revision}, issued <span className="num">{latestReport.issuedAt.toISOString().slice(0, 10)}</span>.{" "}
+              <a className="font-semibold text-accent-strong underline" href={`/api/v1/projects/${project.id}/reports/${latestReport.id}/pdf`}>
+                Download the PDF
+              </a>
+            </p>
+          ) : (
+            <p className="text-ink-soft">No closeout report has been issued for this project yet.</p>
+          )}
         </Card>
       </div>
     </main>

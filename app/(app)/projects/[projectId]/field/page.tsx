@@ -10,11 +10,13 @@ import { Card, EmptyState } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { NotAllowed } from "@/components/ui/not-allowed";
 import { StatusBadge } from "@/components/ui/status";
+import { SectionPhotos } from "@/components/uploads/section-photos";
 import { listConditionsForSystem } from "@/db/queries/conditions";
 import { countTerminalsBySystem } from "@/db/queries/field";
 import { listInstrumentsUsedInProject } from "@/db/queries/instruments";
 import type { Conditions } from "@/lib/api-client/field";
 import { recommendLayout } from "@/lib/airflow/layout";
+import { can } from "@/lib/auth/policy";
 import { instrumentName } from "@/lib/instruments/kinds";
 import { formatCalendarDate, instrumentUsability } from "@/lib/instruments/usability";
 import { ductOf } from "@/lib/server/airflow-view";
@@ -31,6 +33,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
   const screen = await loadAirflowScreen(params, "traverse.record");
   if (!screen.allowed) return <NotAllowed what="taking readings" />;
   const { units, systems, project } = screen;
+  const canAddPhotos = can(screen.user, screen.access.role, "photo.add");
 
   const [terminalCounts, instrumentsInUse, conditionLists] = await Promise.all([
     countTerminalsBySystem({ projectId: project.id }),
@@ -120,6 +123,16 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
                                 <span className="sr-only"> of {row.section.tag}</span>
                               </Link>
                             )}
+                          </div>
+                          <div className="lg:col-span-2">
+                            <SectionPhotos
+                              projectId={project.id}
+                              sectionId={row.section.id}
+                              sectionTag={row.section.tag}
+                              currentUserId={screen.user.id}
+                              canAdd={canAddPhotos}
+                              locked={latest?.status === "approved"}
+                            />
                           </div>
                         </li>
                       );

@@ -2,10 +2,12 @@ import { NextResponse } from "next/server";
 import { recordAudit } from "@/db/queries/audit";
 import { deleteUnusedInstrument, findInstrumentBySerial, getInstrument, getInstrumentUsage, listRolesOfUser, updateInstrument } from "@/db/queries/instruments";
 import { isUuid } from "@/db/queries/projects";
+import { listCertificateObjectKeys } from "@/db/queries/uploads";
 import type { Instrument } from "@/db/schema";
 import { canKeepInstrumentRegister } from "@/lib/auth/policy";
 import { instrumentJson } from "@/lib/server/field-json";
 import { BODY_LIMITS, defineRoute, jsonError, parseJsonBody } from "@/lib/server/route";
+import { deleteObjectsQuietly } from "@/lib/server/storage";
 import { instrumentPatchSchema, instrumentRecordProblems } from "@/lib/validation/instruments";
 
 const NOT_FOUND = "No such instrument in the register.";
@@ -87,9 +89,12 @@ export const DELETE = defineRoute({ outsideProject: "signed-in" }, async ({ para
     return jsonError(403, "Only technicians and site administrators change the instrument register.");
   const row = await load(params.instrumentId);
   if (!row) return jsonError(404, NOT_FOUND);
+  // Its certificates' rows go with it (cascade); their files are removed once the row is gone.
+  const certificateKeys = await listCertificateObjectKeys({ instrumentId: row.id });
   const outcome = await deleteUnusedInstrument({ id: row.id });
   if (outcome === "missing") return jsonError(404, NOT_FOUND);
   if (outcome === "used") return jsonError(409, "This instrument was used for readings and stays in the register; retire it instead.");
+  await deleteObjectsQuietly(certificateKeys);
   await recordAudit({ userId: user.id, projectId: null, action: "instrument.deleted", entityType: "instrument", entityId: row.id, detail: { before: row } });
   return new Response(null, { status: 204 });
 });

@@ -1,0 +1,9 @@
+import AxeBuilder from "@axe-core/playwright";
+import { expect, type Page } from "@playwright/test";
+
+/** WCAG 2.1 AA rules, colour contrast among them. */
+export async function expectNoAxeViolations(page: Page) {
+  await expect(page).toHaveTitle(/\S/);
+  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  expect(results.violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
