@@ -178,6 +178,22 @@ function barometric(conditions: AirConditions): number {
   return barometricPressureFromAltitudePa(conditions.altitudeM ?? 0);
 }
 
+/** Humidity ratio from whichever humidity reading the conditions give (negative for an impossible wet-bulb). */
+function rawHumidityRatio(conditions: AirConditions, absolutePressurePa: number): number {
+  if (conditions.relativeHumidityPct !== undefined) return humidityRatioFromRelativeHumidity(conditions.dryBulbC, conditions.relativeHumidityPct, absolutePressurePa);
+  return humidityRatioFromWetBulb(conditions.dryBulbC, conditions.wetBulbC ?? conditions.dryBulbC, absolutePressurePa);
+}
+
+/**
+ * The density airState gives for these conditions, or null where airState refuses them, without building
+ * its messages: for callers that evaluate the density many times (sensitivity coefficients).
+ */
+export function densityOf(conditions: AirConditions): number | null {
+  if (Object.keys(airConditionErrors(conditions)).length > 0) return null;
+  const absolutePressurePa = barometric(conditions) + (conditions.staticPa ?? 0);
+  return moistAirDensityKgM3(conditions.dryBulbC, Math.max(0, rawHumidityRatio(conditions, absolutePressurePa)), absolutePressurePa);
+}
+
 /**
  * The state of the air at the measuring plane. Absolute pressure = barometric + duct static;
  * humidity is evaluated at that absolute pressure (the sensor sits in the duct).
@@ -215,24 +231,20 @@ export function airState(conditions: AirConditions, options: { fieldPrefix?: str
     );
   }
 
-  let humidityRatio: number;
+  let humidityRatio = rawHumidityRatio(conditions, absolutePressurePa);
   if (conditions.relativeHumidityPct !== undefined) {
     const rh = conditions.relativeHumidityPct;
-    humidityRatio = humidityRatioFromRelativeHumidity(dryBulbC, rh, absolutePressurePa);
     if (rh >= 100 && dryBulbC < 0) {
       warnings.push(
         `RH ${rh} % at ${dryBulbC} °C: saturated air below freezing usually means an iced or wetted sensor. Humidity was taken relative to ice; check the reading.`,
       );
     }
-  } else {
+  } else if (humidityRatio < 0) {
     const wb = conditions.wetBulbC ?? dryBulbC;
-    humidityRatio = humidityRatioFromWetBulb(dryBulbC, wb, absolutePressurePa);
-    if (humidityRatio < 0) {
-      warnings.push(
-        `Wet-bulb ${wb} °C is lower than perfectly dry air at ${dryBulbC} °C would read (humidity ratio ${humidityRatio.toFixed(4)}); the wick was probably dry or the reading wrong. Dry air was assumed.`,
-      );
-      humidityRatio = 0;
-    }
+    warnings.push(
+      `Wet-bulb ${wb} °C is lower than perfectly dry air at ${dryBulbC} °C would read (humidity ratio ${humidityRatio.toFixed(4)}); the wick was probably dry or the reading wrong. Dry air was assumed.`,
+    );
+    humidityRatio = 0;
   }
 
   const vapourPressurePa = vapourPressureFromHumidityRatioPa(humidityRatio, absolutePressurePa);

@@ -222,6 +222,23 @@ export function powerLawLayoutError(layout: Layout, read?: readonly (readonly bo
   return layoutErrorOnDevelopedProfile(layout, developedProfileGrid(layout), read);
 }
 
+const profileOf = new WeakMap<Layout, { grid: number[][]; completeError: number }>();
+
+/**
+ * developedProfileGrid and the complete layout's powerLawLayoutError, computed once per layout object
+ * (layouts from layoutFor are shared and frozen, so each is worked out once however often it is reduced).
+ * The grid returned must not be changed.
+ */
+export function developedProfileOf(layout: Layout): { grid: readonly (readonly number[])[]; completeError: number } {
+  let entry = profileOf.get(layout);
+  if (!entry) {
+    const grid = developedProfileGrid(layout);
+    entry = { grid, completeError: layoutErrorOnDevelopedProfile(layout, grid) };
+    profileOf.set(layout, entry);
+  }
+  return entry;
+}
+
 /**
  * developedProfile at every point's read position, line by line. The layouts' structure is used to
  * take few powers: on a round duct the read positions repeat from diameter to diameter, and on a

@@ -451,3 +451,71 @@ export function buildLayout(req: LayoutRequest): Layout {
     warnings,
   };
 }
+
+/** How many distinct layouts layoutFor keeps: a project's sections, with room to spare. */
+const LAYOUT_CACHE_SIZE = 256;
+const layoutCache = new Map<string, Layout>();
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === "object" && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const v of Object.values(value)) deepFreeze(v);
+  }
+  return value;
+}
+
+let lastRequest: { req: LayoutRequest; layout: Layout } | null = null;
+
+function sameRequest(a: LayoutRequest, b: LayoutRequest): boolean {
+  const da = a.duct;
+  const db = b.duct;
+  const sameDuct = da.shape === "round" ? db.shape === "round" && da.diameterM === db.diameterM : db.shape === "rectangular" && da.widthM === db.widthM && da.heightM === db.heightM;
+  return (
+    sameDuct &&
+    a.method === b.method &&
+    a.lines === b.lines &&
+    a.pointsPerLine === b.pointsPerLine &&
+    a.straightUpstreamM === b.straightUpstreamM &&
+    a.straightDownstreamM === b.straightDownstreamM &&
+    a.portOffsetM === b.portOffsetM &&
+    a.probeHeadDiameterM === b.probeHeadDiameterM
+  );
+}
+
+/**
+ * buildLayout, remembered: a layout depends only on its request, and reductions of the same section
+ * (every keystroke of a traverse, every screen and report that shows it) ask for the same one. The
+ * layout is frozen, so no caller can change the shared copy; least recently used layouts are dropped
+ * beyond LAYOUT_CACHE_SIZE. Errors are not remembered.
+ */
+export function layoutFor(req: LayoutRequest): Layout {
+  // The same section again (a traverse recalculated as each reading lands) is answered without a key.
+  if (lastRequest && sameRequest(lastRequest.req, req)) return lastRequest.layout;
+  const layout = rememberedLayout(req);
+  lastRequest = { req: { ...req, duct: { ...req.duct } }, layout };
+  return layout;
+}
+
+function rememberedLayout(req: LayoutRequest): Layout {
+  const d = req.duct;
+  const key = [
+    d.shape === "round" ? `r${d.diameterM}` : `q${d.widthM}x${d.heightM}`,
+    req.method,
+    req.lines,
+    req.pointsPerLine,
+    req.straightUpstreamM,
+    req.straightDownstreamM,
+    req.portOffsetM,
+    req.probeHeadDiameterM,
+  ].join("|");
+  const hit = layoutCache.get(key);
+  if (hit) {
+    layoutCache.delete(key);
+    layoutCache.set(key, hit);
+    return hit;
+  }
+  const layout = deepFreeze(buildLayout(req));
+  layoutCache.set(key, layout);
+  if (layoutCache.size > LAYOUT_CACHE_SIZE) layoutCache.delete(layoutCache.keys().next().value as string);
+  return layout;
+}

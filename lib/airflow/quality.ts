@@ -55,20 +55,33 @@ function pct(x: number): string {
  * equivalent of the velocity) the low-pressure criterion is skipped. Throws RangeError for empty or
  * mismatched inputs.
  */
-export function assessPlane(velocityPressuresPa: readonly number[], velocitiesMS: readonly number[], options: { readAsPressures?: boolean } = {}): PlaneQuality {
+export function assessPlane(velocityPressuresPa: ArrayLike<number>, velocitiesMS: ArrayLike<number>, options: { readAsPressures?: boolean } = {}): PlaneQuality {
   const count = velocitiesMS.length;
   if (count === 0 || velocityPressuresPa.length !== count) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
   let maxPv = -Infinity;
-  for (const pv of velocityPressuresPa) if (pv > maxPv) maxPv = pv;
-  const shareAboveTenthOfMax = maxPv > 0 ? velocityPressuresPa.filter((pv) => pv > 0.1 * maxPv).length / count : 0;
-  const mean = velocitiesMS.reduce((a, b) => a + b, 0) / count;
+  let sumV = 0;
   let maxV = -Infinity;
-  for (const v of velocitiesMS) if (v > maxV) maxV = v;
-  const variance = count > 1 ? velocitiesMS.reduce((acc, v) => acc + (v - mean) ** 2, 0) / (count - 1) : 0;
+  let zeroOrNegativeCount = 0;
+  let lowPressureCount = 0;
+  for (let i = 0; i < count; i++) {
+    const pv = velocityPressuresPa[i]!;
+    const v = velocitiesMS[i]!;
+    if (pv > maxPv) maxPv = pv;
+    if (v > maxV) maxV = v;
+    sumV += v;
+    if (pv <= 0) zeroOrNegativeCount++;
+    else if (pv < LOW_VELOCITY_PRESSURE_PA) lowPressureCount++;
+  }
+  if (options.readAsPressures === false) lowPressureCount = 0;
+  let aboveTenth = 0;
+  if (maxPv > 0) for (let i = 0; i < count; i++) if (velocityPressuresPa[i]! > 0.1 * maxPv) aboveTenth++;
+  const shareAboveTenthOfMax = aboveTenth / count;
+  const mean = sumV / count;
+  let squares = 0;
+  for (let i = 0; i < count; i++) squares += (velocitiesMS[i]! - mean) * (velocitiesMS[i]! - mean);
+  const variance = count > 1 ? squares / (count - 1) : 0;
   const maxOverMean = mean > 0 ? maxV / mean : Number.POSITIVE_INFINITY;
   const cv = mean > 0 ? Math.sqrt(variance) / mean : Number.POSITIVE_INFINITY;
-  const zeroOrNegativeCount = velocityPressuresPa.filter((pv) => pv <= 0).length;
-  const lowPressureCount = options.readAsPressures === false ? 0 : velocityPressuresPa.filter((pv) => pv > 0 && pv < LOW_VELOCITY_PRESSURE_PA).length;
 
   let verdict: Verdict = "good";
   const reasons: string[] = [];

@@ -6,8 +6,8 @@
 import { airState, type AirConditions, type AirState } from "./air";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { EngineInputError } from "./errors";
-import { developedProfileGrid, layoutErrorOnDevelopedProfile, planeMean, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
-import { buildLayout, ductAreaM2, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest } from "./layout";
+import { developedProfileOf, layoutErrorOnDevelopedProfile, planeMean, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
+import { ductAreaM2, layoutFor, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest } from "./layout";
 import { assessPlane, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
 import {
   COVERAGE_FACTOR,
@@ -162,6 +162,70 @@ function checkForwardFlow(readings: readonly (readonly (number | null)[])[], kin
 }
 
 /**
+ * Working lists of the points read, reused from one reduction to the next (allocating typed arrays on
+ * every call costs more than the arithmetic). Only the functions reduceTraverse calls synchronously see
+ * them, and none keeps them.
+ */
+function newScratch(size: number) {
+  return { pvsAll: new Float64Array(size), velocitiesAll: new Float64Array(size), developedAll: new Float64Array(size), readingsAll: new Float64Array(size), indexAll: new Int32Array(size) };
+}
+let scratch = newScratch(128);
+function scratchFor(size: number): typeof scratch {
+  if (scratch.pvsAll.length < size) scratch = newScratch(size);
+  return scratch;
+}
+
+/** A reading → its velocity (m/s, never below 0), and the velocity pressure the plane checks use. */
+interface Converter {
+  velocity(reading: number): number;
+  /** The reading itself for pitot readings; for anemometers the equivalent Pv, keeping a reverse reading's sign. */
+  pressure(reading: number, velocity: number): number;
+}
+
+function converter(kind: ReadingsKind, rho: number, absolutePa: number, coefficient: number, instrumentDensityKgM3: number): Converter {
+  if (kind === "velocity_pressure") return { velocity: (pv) => velocityFromPressureMS(pv, rho, absolutePa, coefficient), pressure: (pv) => pv };
+  return {
+    velocity: (r) => Math.max(0, kind === "velocity_actual" ? r : actualVelocityFromStandardMS(r, rho, instrumentDensityKgM3)),
+    // Equivalent Pv keeps the sign so a reverse reading still counts as zero/negative in the plane check.
+    pressure: (r, v) => (r < 0 ? -velocityPressureFromVelocityPa(Math.abs(r), rho, absolutePa) : velocityPressureFromVelocityPa(v, rho, absolutePa)),
+  };
+}
+
+/** One record per layout point, line by line: where it is, what was read, its velocity, and how a gap was filled. */
+function traversePoints(layout: Layout, readings: readonly (readonly (number | null)[])[], convert: Converter, filled: readonly FilledPoint[]): TraversePoint[] {
+  const points: TraversePoint[] = [];
+  for (const line of layout.lines) {
+    for (const p of line.points) {
+      const reading = readings[p.line]?.[p.point] ?? null;
+      const v = reading === null ? null : convert.velocity(reading);
+      points.push({
+        line: p.line,
+        point: p.point,
+        xM: p.xM,
+        yM: p.yM,
+        depthM: p.depthM,
+        positionM: p.positionM,
+        readPositionM: p.readPositionM,
+        beyondProbeReach: p.beyondProbeReach,
+        reading,
+        velocityPressurePa: reading === null || v === null ? null : convert.pressure(reading, v),
+        velocityMS: v,
+        filledFrom: null,
+        filledVelocityMS: null,
+      });
+    }
+  }
+  for (const f of filled) {
+    const point = points[f.line * layout.pointsPerLine + f.point];
+    if (point) {
+      point.filledFrom = f.from;
+      point.filledVelocityMS = f.value;
+    }
+  }
+  return points;
+}
+
+/**
  * Reduces a traverse. Input is assumed validated (see lib/validation/calc.ts): readings must match the
  * layout's shape. Throws AirStateError for impossible air, EngineInputError (field `readings`) when most
  * readings are negative (swapped connections) or none is positive, RangeError for a readings/layout mismatch.
@@ -174,7 +238,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   // Only the accuracies actually given replace the defaults (an explicit undefined must not).
   const given = Object.entries(input.instrument ?? {}).filter(([, v]) => v !== undefined);
   const accuracy: InstrumentAccuracy = { ...DEFAULT_INSTRUMENT_ACCURACY, ...Object.fromEntries(given) };
-  const layout = buildLayout({
+  const layout = layoutFor({
     duct: input.duct,
     method: input.method,
     lines: input.lines ?? input.readings.length,
@@ -192,50 +256,44 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const rho = air.densityKgM3;
   const warnings = [...layout.warnings, ...air.warnings];
 
-  const toVelocity = (reading: number): { pv: number; v: number } => {
-    if (kind === "velocity_pressure") return { pv: reading, v: velocityFromPressureMS(reading, rho, air.absolutePressurePa, coefficient) };
-    const v = Math.max(0, kind === "velocity_actual" ? reading : actualVelocityFromStandardMS(reading, rho, instrumentDensityKgM3));
-    // Equivalent Pv keeps the sign so a reverse reading still counts as zero/negative in the plane check.
-    const pv = reading < 0 ? -velocityPressureFromVelocityPa(Math.abs(reading), rho, air.absolutePressurePa) : velocityPressureFromVelocityPa(v, rho, air.absolutePressurePa);
-    return { pv, v };
-  };
-
-  const points: TraversePoint[] = [];
-  const velocities = layout.lines.map((line, k) =>
-    line.points.map((p, i) => {
-      const reading = input.readings[k]?.[i] ?? null;
-      const converted = reading === null ? null : toVelocity(reading);
-      points.push({
-        line: k,
-        point: i,
-        xM: p.xM,
-        yM: p.yM,
-        depthM: p.depthM,
-        positionM: p.positionM,
-        readPositionM: p.readPositionM,
-        beyondProbeReach: p.beyondProbeReach,
-        reading,
-        velocityPressurePa: converted?.pv ?? null,
-        velocityMS: converted?.v ?? null,
-        filledFrom: null,
-        filledVelocityMS: null,
-      });
-      return converted?.v ?? null;
-    }),
-  );
-  const read = points.filter((p) => p.velocityMS !== null);
-  if (read.length === 0) throw new RangeError("readings: at least one point must be read");
-
-  const { mean: meanVelocityMS, rule, filled } = planeMean(layout, velocities);
+  // One pass over the points: velocities and the lists of points read that the checks use. The
+  // per-point records (`points`) are built from the same conversion when a caller first asks for them.
+  const { grid: profile, completeError } = developedProfileOf(layout);
   const perLine = layout.pointsPerLine;
-  for (const f of filled) {
-    const point = points[f.line * perLine + f.point];
-    if (point) {
-      point.filledFrom = f.from;
-      point.filledVelocityMS = f.value;
+  const { pvsAll, velocitiesAll, developedAll, readingsAll, indexAll } = scratchFor(layout.lineCount * perLine);
+  const convert = converter(kind, rho, air.absolutePressurePa, coefficient, instrumentDensityKgM3);
+  let readCount = 0;
+  let velocitySum = 0;
+  let maxVelocity = 0;
+  for (let k = 0; k < layout.lineCount; k++) {
+    const row = input.readings[k]!;
+    for (let i = 0; i < perLine; i++) {
+      const reading = row[i] ?? null;
+      if (reading === null) continue;
+      const n = readCount++;
+      const v = convert.velocity(reading);
+      pvsAll[n] = convert.pressure(reading, v);
+      velocitiesAll[n] = v;
+      developedAll[n] = profile[k]?.[i] ?? 1;
+      readingsAll[n] = reading;
+      indexAll[n] = k * perLine + i;
+      velocitySum += v;
+      if (v > maxVelocity) maxVelocity = v;
     }
   }
-  const missing = points.length - read.length;
+  if (readCount === 0) throw new RangeError("readings: at least one point must be read");
+  const pvs = pvsAll.subarray(0, readCount);
+  const readVelocities = velocitiesAll.subarray(0, readCount);
+  const developed = developedAll.subarray(0, readCount);
+  const readings = readingsAll.subarray(0, readCount);
+  const pointCount = layout.lineCount * perLine;
+  const missing = pointCount - readCount;
+
+  // A complete grid is planeMean's equal-weight case, its mean already summed above.
+  const { mean: meanVelocityMS, rule, filled } =
+    missing === 0
+      ? { mean: velocitySum / readCount, rule: "equal-weight" as const, filled: [] as FilledPoint[] }
+      : planeMean(layout, input.readings.map((row) => row.map((r) => (r === null ? null : convert.velocity(r)))));
   if (missing > 0 && rule === "tributary-area")
     warnings.push(`${plural(missing, "point was", "points were")} not read, too many to fill from their counterparts; the mean uses tributary areas around the points read instead of the method's own weights.`);
   else if (missing > 0) {
@@ -248,48 +306,57 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const flowM3S = areaM2 * meanVelocityMS;
   const massFlowKgS = rho * flowM3S;
   const reynolds = (rho * meanVelocityMS * hydraulicDiameterM) / air.viscosityPaS;
-  let maxVelocity = 0;
-  for (const p of read) if ((p.velocityMS ?? 0) > maxVelocity) maxVelocity = p.velocityMS ?? 0;
   const maxMach = machNumber(maxVelocity, air.dryBulbC);
 
-  const pvs = read.map((p) => p.velocityPressurePa ?? 0);
-  const readVelocities = read.map((p) => p.velocityMS ?? 0);
   const quality = assessPlane(pvs, readVelocities, { readAsPressures: kind === "velocity_pressure" });
   if (quality.zeroOrNegativeCount > 0)
     warnings.push(`${plural(quality.zeroOrNegativeCount, "point reads", "points read")} zero or negative; counted as zero velocity (reverse flow or swirl at the plane?).`);
   if (quality.lowPressureCount > 0)
     warnings.push(`${plural(quality.lowPressureCount, "point reads", "points read")} under ${LOW_VELOCITY_PRESSURE_PA} Pa, where the gauge's own error is large.`);
-  for (const p of read) {
-    if (meanVelocityMS > 0 && (p.velocityMS ?? 0) > OUTLIER_OVER_MEAN * meanVelocityMS)
-      warnings.push(`Line ${p.line + 1} point ${p.point + 1} reads ${(p.velocityMS ?? 0).toFixed(1)} m/s, over ${OUTLIER_OVER_MEAN} × the mean ${meanVelocityMS.toFixed(1)} m/s: check the reading and the probe.`);
+  for (let n = 0; n < readCount; n++) {
+    const v = readVelocities[n]!;
+    if (meanVelocityMS > 0 && v > OUTLIER_OVER_MEAN * meanVelocityMS) {
+      const at = indexAll[n]!;
+      warnings.push(`Line ${Math.floor(at / perLine) + 1} point ${(at % perLine) + 1} reads ${v.toFixed(1)} m/s, over ${OUTLIER_OVER_MEAN} × the mean ${meanVelocityMS.toFixed(1)} m/s: check the reading and the probe.`);
+    }
   }
   if (exceedsMachLimit(maxMach)) warnings.push(`Mach ${maxMach.toFixed(2)} at the fastest point is beyond the 0.25 limit of the pitot-static method (ISO 3966).`);
   if (meanVelocityMS > 0 && reynolds < LAMINAR_REYNOLDS) warnings.push(`Reynolds number ${Math.round(reynolds)} is under ${LAMINAR_REYNOLDS}: the flow may be laminar, and the layouts assume turbulent flow.`);
   if (quality.verdict !== "good") warnings.push(`Plane quality is ${quality.verdict}: ${quality.reasons.join(" ")}`);
 
   // The developed reference profile at every read position serves both the layout term and the sampling term.
-  const profile = developedProfileGrid(layout);
   const mask = missing > 0 ? layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null)) : undefined;
-  const developed = read.map((p) => profile[p.line]?.[p.point] ?? 1);
   const sampling = samplingUncertainty(readVelocities, developed, straightRunClass(input));
   const common = {
     duct: input.duct,
     accuracy,
-    readingRelative: kind === "velocity_pressure" ? pressureReadingRelativeUncertainty(pvs, accuracy) : velocityReadingRelativeUncertainty(read.map((p) => p.reading ?? 0), accuracy),
+    readingRelative: kind === "velocity_pressure" ? pressureReadingRelativeUncertainty(pvs, accuracy) : velocityReadingRelativeUncertainty(readings, accuracy),
     densityRelative: densityRelativeUncertainty(input.air, accuracy),
-    layoutError: layoutErrorOnDevelopedProfile(layout, profile, mask),
-    pointCount: read.length,
+    layoutError: mask ? layoutErrorOnDevelopedProfile(layout, profile, mask) : completeError,
+    pointCount: readCount,
     samplingRelative: sampling.relative,
   };
   const exponents = DENSITY_EXPONENT[kind];
-  const actual = traverseUncertainty({ ...common, densitySensitivity: exponents.actual });
-  const standard = traverseUncertainty({ ...common, densitySensitivity: exponents.standard });
-  const mass = traverseUncertainty({ ...common, densitySensitivity: exponents.mass });
-  const uncertainty: TraverseUncertainty = { ...standard, coverageFactor: COVERAGE_FACTOR, actual, standard, mass, sampling };
+  const actual = traverseUncertainty(common, exponents.actual);
+  const standard = traverseUncertainty(common, exponents.standard);
+  const mass = traverseUncertainty(common, exponents.mass);
+  const uncertainty: TraverseUncertainty = {
+    terms: standard.terms,
+    combined: standard.combined,
+    expanded: standard.expanded,
+    coverageFactor: COVERAGE_FACTOR,
+    actual,
+    standard,
+    mass,
+    sampling,
+  };
   const worst = Math.max(actual.expanded, standard.expanded, mass.expanded);
   if (!(worst <= HIGH_EXPANDED_UNCERTAINTY))
     warnings.push(`Expanded uncertainty of the flow is high, up to ${formatExpandedUncertainty(worst)}; see the quality reasons, the number of points and the instrument accuracy.`);
 
+  // The records are built on first use from a copy of the readings (the caller may reuse its grid).
+  const readingsCopy = input.readings.map((row) => row.slice());
+  let points: TraversePoint[] | undefined;
   return {
     air,
     densityKgM3: rho,
@@ -307,7 +374,10 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     integrationRule: rule,
     filled,
     layout,
-    points,
+    get points() {
+      points ??= traversePoints(layout, readingsCopy, convert, filled);
+      return points;
+    },
     quality,
     uncertainty,
     warnings,

@@ -30,7 +30,7 @@
  *   (GUM §6.2.1, §6.3.3). Every figure shown to a user is the expanded one, with k stated: see
  *   formatExpandedUncertainty.
  */
-import { airState, barometricPressureFromAltitudePa, type AirConditions } from "./air";
+import { barometricPressureFromAltitudePa, densityOf, type AirConditions } from "./air";
 import { ASSUMED_STATIC_UNCERTAINTY_PA } from "./constants";
 import type { Duct } from "./layout";
 
@@ -135,10 +135,11 @@ export function areaRelativeUncertainty(duct: Duct, dimensionAccuracyM: number):
  * velocity when u ≪ Pv, and still finite at Pv ≤ 0. The gauge error is the same instrument at every
  * point, so the point errors are summed (fully correlated) before dividing by the sum of velocities.
  */
-export function pressureReadingRelativeUncertainty(velocityPressuresPa: readonly number[], accuracy: Pick<InstrumentAccuracy, "pressureAccuracyPct" | "pressureFloorPa">): number {
+export function pressureReadingRelativeUncertainty(velocityPressuresPa: ArrayLike<number>, accuracy: Pick<InstrumentAccuracy, "pressureAccuracyPct" | "pressureFloorPa">): number {
   let errorSum = 0;
   let velocitySum = 0;
-  for (const pv of velocityPressuresPa) {
+  for (let i = 0; i < velocityPressuresPa.length; i++) {
+    const pv = velocityPressuresPa[i]!;
     const positive = Math.max(pv, 0);
     const u = (accuracy.pressureAccuracyPct / 100) * Math.abs(pv) + accuracy.pressureFloorPa;
     errorSum += (Math.sqrt(positive + u) - Math.sqrt(Math.max(positive - u, 0))) / 2;
@@ -148,18 +149,15 @@ export function pressureReadingRelativeUncertainty(velocityPressuresPa: readonly
 }
 
 /** Relative error bound of the mean velocity from anemometer velocities (m/s) of ±(pct % + floor m/s), correlated as above. */
-export function velocityReadingRelativeUncertainty(velocitiesMS: readonly number[], accuracy: Pick<InstrumentAccuracy, "velocityAccuracyPct" | "velocityFloorMS">): number {
-  const sum = velocitiesMS.reduce((a, v) => a + Math.max(v, 0), 0);
-  const err = velocitiesMS.reduce((a, v) => a + (accuracy.velocityAccuracyPct / 100) * Math.abs(v) + accuracy.velocityFloorMS, 0);
-  return sum > 0 ? err / sum : Number.POSITIVE_INFINITY;
-}
-
-function densityAt(conditions: AirConditions): number | null {
-  try {
-    return airState(conditions).densityKgM3;
-  } catch {
-    return null;
+export function velocityReadingRelativeUncertainty(velocitiesMS: ArrayLike<number>, accuracy: Pick<InstrumentAccuracy, "velocityAccuracyPct" | "velocityFloorMS">): number {
+  let sum = 0;
+  let err = 0;
+  for (let i = 0; i < velocitiesMS.length; i++) {
+    const v = velocitiesMS[i]!;
+    sum += Math.max(v, 0);
+    err += (accuracy.velocityAccuracyPct / 100) * Math.abs(v) + accuracy.velocityFloorMS;
   }
+  return sum > 0 ? err / sum : Number.POSITIVE_INFINITY;
 }
 
 /**
@@ -169,7 +167,22 @@ function densityAt(conditions: AirConditions): number | null {
  * (GUM §5.1.3 allows numerical sensitivity coefficients), one-sided where a step leaves the valid range.
  */
 export function densityRelativeUncertainty(conditions: AirConditions, accuracy: InstrumentAccuracy): number {
-  const rho = densityAt(conditions);
+  // A pure function of its inputs, asked again with the same air on every recalculation of a traverse.
+  const key = `${conditions.dryBulbC}|${conditions.barometricPa}|${conditions.altitudeM}|${conditions.staticPa}|${conditions.relativeHumidityPct}|${conditions.wetBulbC}|${accuracy.temperatureAccuracyC}|${accuracy.barometricAccuracyPa}|${accuracy.pressureAccuracyPct}|${accuracy.pressureFloorPa}|${accuracy.humidityAccuracyPct}`;
+  const known = densityUncertaintyMemo.get(key);
+  if (known !== undefined) return known;
+  const value = computeDensityRelativeUncertainty(conditions, accuracy);
+  densityUncertaintyMemo.set(key, value);
+  if (densityUncertaintyMemo.size > DENSITY_MEMO_SIZE) densityUncertaintyMemo.delete(densityUncertaintyMemo.keys().next().value as string);
+  return value;
+}
+
+/** Distinct air states remembered by densityRelativeUncertainty (oldest dropped first). */
+const DENSITY_MEMO_SIZE = 64;
+const densityUncertaintyMemo = new Map<string, number>();
+
+function computeDensityRelativeUncertainty(conditions: AirConditions, accuracy: InstrumentAccuracy): number {
+  const rho = densityOf(conditions);
   if (rho === null) return Number.NaN;
   const barometricU = conditions.barometricPa !== undefined ? accuracy.barometricAccuracyPa : ALTITUDE_BAROMETRIC_UNCERTAINTY_PA;
   const staticPa = conditions.staticPa;
@@ -188,8 +201,8 @@ export function densityRelativeUncertainty(conditions: AirConditions, accuracy: 
   let sumSquares = 0;
   for (const [u, shift] of steps) {
     if (!(u > 0)) continue;
-    const up = densityAt(shift(conditions, u));
-    const down = densityAt(shift(conditions, -u));
+    const up = densityOf(shift(conditions, u));
+    const down = densityOf(shift(conditions, -u));
     const slope = up !== null && down !== null ? (up - down) / 2 : up !== null ? up - rho : down !== null ? rho - down : 0;
     sumSquares += (slope / rho) ** 2;
   }
@@ -224,11 +237,11 @@ export interface FlowUncertainty {
 }
 
 /** The terms, combined standard and expanded (k = 2) relative uncertainty of one traverse flow. */
-export function traverseUncertainty(input: TraverseUncertaintyInput): FlowUncertainty {
+export function traverseUncertainty(input: TraverseUncertaintyInput, densitySensitivity = input.densitySensitivity ?? 0.5): FlowUncertainty {
   const terms: UncertaintyTerms = {
     dimension: areaRelativeUncertainty(input.duct, input.accuracy.dimensionAccuracyM) / SQRT3,
     reading: input.readingRelative / SQRT3,
-    density: (Math.abs(input.densitySensitivity ?? 0.5) * input.densityRelative) / SQRT3,
+    density: (Math.abs(densitySensitivity) * input.densityRelative) / SQRT3,
     layout: Math.abs(input.layoutError) / SQRT3,
     random: input.pointCount > 0 ? input.accuracy.repeatabilityPct / 100 / Math.sqrt(input.pointCount) : 0,
     sampling: input.samplingRelative ?? 0,
@@ -250,15 +263,20 @@ export interface SamplingUncertainty {
   pointCount: number;
 }
 
-function coefficientOfVariation(values: readonly number[]): number {
+/** Coefficient of variation of values[i] / scale[i] (scale omitted: of the values themselves). */
+function coefficientOfVariation(values: ArrayLike<number>, scale?: ArrayLike<number>): number {
   const n = values.length;
   if (n < 2) return 0;
+  const at = (i: number) => (scale ? values[i]! / Math.max(scale[i] ?? 1, 1e-6) : values[i]!);
   let sum = 0;
-  for (const v of values) sum += v;
+  for (let i = 0; i < n; i++) sum += at(i);
   const mean = sum / n;
   if (!(mean > 0)) return Number.POSITIVE_INFINITY;
   let ss = 0;
-  for (const v of values) ss += (v - mean) ** 2;
+  for (let i = 0; i < n; i++) {
+    const d = at(i) - mean;
+    ss += d * d;
+  }
   return Math.sqrt(ss / (n - 1)) / mean;
 }
 
@@ -267,12 +285,12 @@ function coefficientOfVariation(values: readonly number[]): number {
  * read at a point and `developed[i]` the fully developed reference profile at that point's read position
  * (any positive scale). Points not read are left out of both.
  */
-export function samplingUncertainty(velocitiesMS: readonly number[], developed: readonly number[], straightRun: StraightRun = "unknown"): SamplingUncertainty {
+export function samplingUncertainty(velocitiesMS: ArrayLike<number>, developed: ArrayLike<number>, straightRun: StraightRun = "unknown"): SamplingUncertainty {
   const n = velocitiesMS.length;
   const factor = straightRun === "unsuitable" ? UNSUITABLE_RUN_SAMPLING_FACTOR : straightRun === "short" ? SHORT_RUN_SAMPLING_FACTOR : 1;
   if (n === 0) return { relative: Number.POSITIVE_INFINITY, unevenness: Number.POSITIVE_INFINITY, factor, pointCount: 0 };
   const flat = coefficientOfVariation(velocitiesMS);
-  const shaped = coefficientOfVariation(velocitiesMS.map((v, i) => v / Math.max(developed[i] ?? 1, 1e-6)));
+  const shaped = coefficientOfVariation(velocitiesMS, developed);
   const unevenness = Math.min(flat, shaped);
   return { relative: (factor * unevenness) / Math.sqrt(n), unevenness, factor, pointCount: n };
 }
