@@ -36,6 +36,8 @@ const ACCOUNTS = ["tech@example.test", "cx@example.test", "engineer@example.test
 
 for (const email of ACCOUNTS) {
   test(`no screen ${email} can open breaks the policy`, async ({ page }) => {
+    // A dozen screens, each to network idle: three times the default time.
+    test.slow();
     const violations = await watchCsp(page);
     const signIn = new SignInPage(page);
     await signIn.goto();
