@@ -2,25 +2,20 @@
  * `npm run load`: the production build on loopback, driven by autocannon with signed-in users,
  * a mix of reads and saves. Bounded in time; sends traffic to 127.0.0.1 only.
  *
- *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write readings|preference] [--postgres | --database postgres-url]
+ *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write readings|preference] [--postgres | --database postgres-url] [--json out.json]
  *
  * Prints requests/s, p50/p95/p99 latency and errors for reads and writes separately, and exits 1
  * when any request failed. The server runs on a fresh embedded database in a temporary directory
  * (or on a throwaway PostgreSQL cluster with --postgres, or on --database, a PostgreSQL database it
  * may seed), and is stopped and removed afterwards.
  */
-import { spawn } from "node:child_process";
-import crypto from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
-import path from "node:path";
 import autocannon, { type Request as CannonRequest } from "autocannon";
+import { cpuSeconds, signIn, startAppServer } from "../support/app-server";
 import { startPostgres, type PostgresServer } from "../support/postgres-cluster";
 import { DEFAULT_WRITE_MIX, WRITE_MIXES, type LoadContext } from "./writes";
 
-const ROOT = path.resolve(import.meta.dirname, "../..");
-const DEMO_PASSWORD = "airtally-demo";
 const ACCOUNTS = ["tech@example.test", "cx@example.test", "engineer@example.test", "owner@example.test"];
 
 function option(name: string, fallback: string): string {
@@ -32,37 +27,12 @@ const connections = Number(option("connections", "50"));
 const writers = Number(option("writers", "5"));
 const writeMix = option("write", DEFAULT_WRITE_MIX);
 let databaseUrl = option("database", "");
+/** Also write the figures as JSON to this file (npm run bench reads them). */
+const jsonOut = option("json", "");
 const throwawayPostgres = process.argv.includes("--postgres");
 if (!(duration > 0 && duration <= 600)) throw new Error("--duration is in seconds, 1 to 600.");
 if (!(writers >= 0 && writers < connections && connections <= 500)) throw new Error("--connections 1–500, --writers fewer than connections.");
 if (!WRITE_MIXES[writeMix]) throw new Error(`--write must be one of: ${Object.keys(WRITE_MIXES).join(", ")}.`);
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.listen(0, "127.0.0.1", () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-    s.on("error", reject);
-  });
-}
-
-/** CPU seconds (user + system) a process has used so far, from /proc (Linux). */
-function cpuSeconds(pid: number): number {
-  const fields = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
-  return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
-}
-
-/** The server process the launcher started (its only child). */
-function serverPid(launcherPid: number): number | null {
-  try {
-    const kids = fs.readFileSync(`/proc/${launcherPid}/task/${launcherPid}/children`, "utf8").trim().split(/\s+/).filter(Boolean);
-    return kids.length > 0 ? Number(kids[0]) : null;
-  } catch {
-    return null;
-  }
-}
 
 const round = (n: number) => (Number.isFinite(n) ? Math.round(n) : "—");
 
@@ -113,48 +83,15 @@ async function main() {
     cluster = await startPostgres();
     databaseUrl = cluster.url;
   }
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), "airtally-load-"));
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
-    PORT: String(port),
-    AIRTALLY_DATA_DIR: path.join(dataDir, "data"),
-    AIRTALLY_SESSION_SECRET: crypto.randomBytes(32).toString("base64url"),
-    ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
-  };
-  if (!databaseUrl) delete env.DATABASE_URL;
-  // The launcher itself (node --import tsx): one process to signal; it stops the server and releases the lock.
-  const server = spawn(process.execPath, ["--import", "tsx", "lib/cli/serve.ts", "--demo"], { cwd: ROOT, env, stdio: ["ignore", "pipe", "inherit"] });
-  const exited = new Promise<void>((r) => server.on("exit", () => r()));
-  const hardStop = setTimeout(() => {
-    console.error("load: giving up after the time limit");
-    server.kill("SIGKILL");
-    process.exit(2);
-  }, (duration + 300) * 1000);
+  const app = await startAppServer({ databaseUrl: databaseUrl || undefined, timeLimitS: duration + 300, label: "load" });
+  const base = app.base;
   const stop = async () => {
-    server.kill("SIGTERM");
-    await exited;
-    clearTimeout(hardStop);
-    fs.rmSync(dataDir, { recursive: true, force: true });
+    await app.stop();
     cluster?.stop();
   };
   try {
-    await new Promise<void>((resolve, reject) => {
-      let out = "";
-      server.stdout!.on("data", (d) => {
-        out += String(d);
-        if (out.includes("Airtally is ready")) resolve();
-      });
-      server.on("exit", (code) => reject(new Error(`the server exited (${code}) before it was ready:\n${out}`)));
-    });
-
     const cookies: Record<string, string> = {};
-    for (const email of ACCOUNTS) {
-      const res = await fetch(`${base}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) });
-      if (res.status !== 204) throw new Error(`sign-in as ${email} answered ${res.status}`);
-      cookies[email] = res.headers.get("set-cookie")!.split(";")[0]!;
-    }
+    for (const email of ACCOUNTS) cookies[email] = await signIn(base, email);
     const list = (await (await fetch(`${base}/api/v1/projects`, { headers: { cookie: cookies["engineer@example.test"]! } })).json()) as { projects: { id: string; name: string }[] };
     const ctx: LoadContext = { cookies, projects: Object.fromEntries(list.projects.map((p) => [p.name, p.id])), base, writers };
     const library = list.projects.find((p) => p.name.startsWith("Wrenfield"))!.id;
@@ -167,7 +104,7 @@ async function main() {
     const writes = await WRITE_MIXES[writeMix]!(ctx);
 
     console.log(`\nDriving ${base} for ${duration} s: ${connections - writers} read connections, ${writers} write connections (${writeMix})…`);
-    const pid = serverPid(server.pid!);
+    const pid = app.serverPid();
     const cpuBefore = pid ? cpuSeconds(pid) : NaN;
     const loadBefore = os.loadavg()[0]!;
     const results = await Promise.all([
@@ -189,6 +126,10 @@ async function main() {
     const failed = results.reduce((n, r) => n + r.errors + r.non2xx + r.timeouts, 0);
     const reads95 = results[0]!.p95;
     console.log(`Target: zero errors (${failed === 0 ? "met" : `${failed} failed`}), read p95 under 100 ms (${reads95 < 100 ? "met" : `not met: ${reads95} ms`}).`);
+    if (jsonOut) {
+      const summary = { date: new Date().toISOString(), database: databaseUrl ? "postgresql" : "pglite", durationS: duration, connections, writers, writeMix, cpuMsPerRequest: (cpuUsed * 1000) / total, loadAverage: os.loadavg()[0], results };
+      fs.writeFileSync(jsonOut, JSON.stringify(summary, null, 2));
+    }
     await stop();
     process.exit(failed === 0 ? 0 : 1);
   } catch (err) {
