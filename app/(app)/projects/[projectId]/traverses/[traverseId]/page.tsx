@@ -9,6 +9,7 @@ import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { LocalTime } from "@/components/ui/local-time";
 import { StatusBadge } from "@/components/ui/status";
+import { SectionPhotos } from "@/components/uploads/section-photos";
 import { isUuid } from "@/db/queries/projects";
 import { getTraverseInProject } from "@/db/queries/traverses";
 import type { Traverse } from "@/lib/api-client/traverses";
@@ -121,11 +122,15 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
         </Card>
       </div>
 
-      {/* Location photos of the ports and the plane: the photo upload pieces (components/uploads) mount here. */}
-      <Card title="Location photos" className="border-dashed">
-        <p className="text-ink-soft" data-slot="section-photos">
-          Photos of {section.tag}&apos;s test ports and traverse plane will be shown here.
-        </p>
+      <Card title={`Photos of ${section.tag}'s test ports and traverse plane`}>
+        <SectionPhotos
+          projectId={project.id}
+          sectionId={section.id}
+          sectionTag={section.tag}
+          currentUserId={user.id}
+          canAdd={can(user, role, "photo.add")}
+          locked={latest?.status === "approved"}
+        />
       </Card>
     </main>
   );
