@@ -45,7 +45,7 @@ function newPrivatePem(): string {
 
 /** Reads the key file, creating it (mode 0600) when missing; two processes racing to create it agree on one. */
 export function loadOrCreateKeyFile(dataDir: string): SigningKey {
-  const file = path.join(dataDir, KEY_FILE);
+  const file = path.join(/*turbopackIgnore: true*/ dataDir, KEY_FILE);
   if (!fs.existsSync(file)) {
     fs.mkdirSync(dataDir, { recursive: true });
     try {
@@ -64,8 +64,8 @@ const globalForKey = globalThis as unknown as { airtallySigningKey?: { source: s
 /** The process's signing key, read once per source. */
 export function getSigningKey(): SigningKey {
   const fromEnv = process.env[SIGNING_KEY_ENV]?.trim();
-  const dataDir = process.env.AIRTALLY_DATA_DIR || path.join(process.cwd(), ".data");
-  const source = fromEnv ? `env:${fromEnv}` : dataDir.startsWith("memory://") ? "memory" : `file:${path.resolve(dataDir)}`;
+  const dataDir = process.env.AIRTALLY_DATA_DIR || path.join(/*turbopackIgnore: true*/ process.cwd(), ".data");
+  const source = fromEnv ? `env:${fromEnv}` : dataDir.startsWith("memory://") ? "memory" : `file:${path.resolve(/*turbopackIgnore: true*/ dataDir)}`;
   if (globalForKey.airtallySigningKey?.source === source) return globalForKey.airtallySigningKey.key;
   const key = fromEnv
     ? fromPrivatePem(fromEnv.replace(/\\n/g, "\n"), SIGNING_KEY_ENV)

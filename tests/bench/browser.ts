@@ -40,15 +40,21 @@ async function firstLoadScriptBytes(browser: Browser, base: string, email: strin
     const cdp = await ctx.newCDPSession(page);
     await cdp.send("Network.enable");
     await cdp.send("Network.setCacheDisabled", { cacheDisabled: true });
-    const scripts = new Map<string, number>();
+    const scripts = new Map<string, { url: string; bytes: number }>();
     cdp.on("Network.responseReceived", (e) => {
-      if (e.type === "Script") scripts.set(e.requestId, 0);
+      if (e.type === "Script") scripts.set(e.requestId, { url: e.response.url, bytes: 0 });
     });
     cdp.on("Network.loadingFinished", (e) => {
-      if (scripts.has(e.requestId)) scripts.set(e.requestId, e.encodedDataLength);
+      const s = scripts.get(e.requestId);
+      if (s) s.bytes = e.encodedDataLength;
     });
     await page.goto(path, { waitUntil: "networkidle" });
-    return [...scripts.values()].reduce((a, b) => a + b, 0);
+    // AIRTALLY_BENCH_SCRIPTS=1 lists each page's scripts, largest first, to find what weighs.
+    if (process.env.AIRTALLY_BENCH_SCRIPTS) {
+      console.log(`\nScripts of ${path}:`);
+      for (const s of [...scripts.values()].sort((a, b) => b.bytes - a.bytes)) console.log(`  ${(s.bytes / 1000).toFixed(1)} kB  ${new URL(s.url).pathname}`);
+    }
+    return [...scripts.values()].reduce((a, b) => a + b.bytes, 0);
   } finally {
     await ctx.close();
   }

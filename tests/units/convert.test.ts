@@ -1,4 +1,5 @@
 import fc from "fast-check";
+import { create, createUnitDependencies, unitDependencies } from "mathjs";
 import { describe, expect, it } from "vitest";
 import { DISPLAY_UNITS, UNITS, UnitError, convert, formatQuantity, fromDisplay, fromSi, toDisplay, toSi, type Quantity, type UnitId } from "@/lib/units";
 
@@ -36,6 +37,22 @@ describe("conversion factors (NIST SP 811, appendix B.8)", () => {
 
   it("gives 2 118.88 cfm per m³/s (1/4.719 474 E-04, NIST SP 811)", () => {
     expect(convert(1, "m3/s", "cfm")).toBeCloseTo(1 / 4.719474e-4, 2);
+  });
+});
+
+describe("every pair agrees with mathjs's unit algebra (a general-purpose reference library)", () => {
+  const math = create({ ...unitDependencies, ...createUnitDependencies });
+  // The units mathjs lacks, from the same NIST SP 811 B.8 definitions as the table.
+  math.createUnit("inH2O", "249.08891 Pa");
+  math.createUnit("inHg", "3386.388640341 Pa");
+  const ids = Object.keys(UNITS) as UnitId[];
+  const pairs = ids.flatMap((a) => ids.filter((b) => UNITS[a].kind === UNITS[b].kind).map((b) => [a, b] as const));
+
+  it.each(pairs)("%s → %s at 0, 1 and 1234.5", (a, b) => {
+    for (const x of [0, 1, 1234.5]) {
+      const expected = math.unit(x, UNITS[a].math).toNumber(UNITS[b].math);
+      expect(Math.abs(convert(x, a, b) - expected)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(expected)));
+    }
   });
 });
 
