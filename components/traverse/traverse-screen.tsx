@@ -9,7 +9,7 @@
  * calculation through the same input mapping).
  */
 import dynamic from "next/dynamic";
-import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react";
+import { useCallback, useDeferredValue, useEffect, useId, useMemo, useRef, useState } from "react";
 import { ConflictChoice } from "@/components/offline/conflict-choice";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
@@ -110,10 +110,43 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   );
   const layout = server.layout;
   const depths = layout ? layout.lines.map((l) => l.points.map((p) => p.depthMm)) : [];
-  const duct = round ? { shape: "round" as const, diameterMm: server.section.diameterMm ?? 0 } : { shape: "rectangular" as const, widthMm: server.section.widthMm ?? 0, heightMm: server.section.heightMm ?? 0 };
-  const unreadableKeys = useMemo(() => new Set(value.unreadable.map(([k, i]) => `${k}:${i}`)), [value.unreadable]);
-  const filled = useMemo(() => new Map([...points.values()].filter((p) => p.filledVelocityMS !== undefined).map((p) => [`${p.line}:${p.point}`, p.filledVelocityMS!])), [points]);
-  const velocities = value.readings.map((row, k) => row.map((_, i) => points.get(`${k}:${i}`)?.velocityMS ?? null));
+  const { diameterMm, widthMm, heightMm } = server.section;
+  const duct = useMemo(
+    () => (round ? { shape: "round" as const, diameterMm: diameterMm ?? 0 } : { shape: "rectangular" as const, widthMm: widthMm ?? 0, heightMm: heightMm ?? 0 }),
+    [round, diameterMm, widthMm, heightMm],
+  );
+  // The map and the chart follow the readings at a lower priority than the cell being typed in and the
+  // live figures: React draws them once the key press has been answered (and skips them while typing
+  // goes on), so each key press re-renders only the grid and the results.
+  const deferredResult = useDeferredValue(result);
+  const deferredUnreadable = useDeferredValue(value.unreadable);
+  const mapAndChart = useMemo(() => {
+    if (!deferredResult || !layout || !deferredResult.points.some((p) => p.velocityMS !== null)) return null;
+    const byPoint = new Map(deferredResult.points.map((p) => [`${p.line}:${p.point}`, p]));
+    const velocities = layout.lines.map((l, k) => l.points.map((_, i) => byPoint.get(`${k}:${i}`)?.velocityMS ?? null));
+    const filled = new Map(deferredResult.points.filter((p) => p.filledVelocityMS !== undefined).map((p) => [`${p.line}:${p.point}`, p.filledVelocityMS!]));
+    const unreadableKeys = new Set(deferredUnreadable.map(([k, i]) => `${k}:${i}`));
+    return (
+      <div className="grid gap-gutter lg:grid-cols-2">
+        <section aria-labelledby={`${resultsId}-map`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-map`}>Velocity map</h2>
+          <p className="text-sm text-ink-soft">Velocity at each point in {formatQuantity(units, "velocity", 0).replace(/^[-\d.,\s]+/, "")}; darker is faster. × unreadable, – not read, italics filled by the engine.</p>
+          <CrossSection
+            duct={duct}
+            layout={layout}
+            title={`Velocity map of ${server.sectionTag}`}
+            values={{ velocities, unreadable: unreadableKeys, filled, format: (ms) => formatQuantity(units, "velocity", ms, { withUnit: false, decimals: units === "IP" ? 0 : 1 }) }}
+          />
+        </section>
+        <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
+          <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
+          <ChartBoundary>
+            <ProfileChart points={deferredResult.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
+          </ChartBoundary>
+        </section>
+      </div>
+    );
+  }, [deferredResult, deferredUnreadable, layout, duct, units, server.sectionTag, server.lines, round, resultsId]);
   const hasReadings = value.readings.some((row) => row.some((v) => v !== null));
 
   const setGrid = (next: { readings: Grid; unreadable: PointRef[] }) => draft.setValue((prev) => ({ ...prev, readings: next.readings, unreadable: next.unreadable }));
@@ -236,28 +269,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </section>
       </div>
 
-      {result && result.points.some((p) => p.velocityMS !== null) && (
-        <div className="grid gap-gutter lg:grid-cols-2">
-          <section aria-labelledby={`${resultsId}-map`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-            <h2 id={`${resultsId}-map`}>Velocity map</h2>
-            <p className="text-sm text-ink-soft">Velocity at each point in {formatQuantity(units, "velocity", 0).replace(/^[-\d.,\s]+/, "")}; darker is faster. × unreadable, – not read, italics filled by the engine.</p>
-            {layout && (
-              <CrossSection
-                duct={duct}
-                layout={layout}
-                title={`Velocity map of ${server.sectionTag}`}
-                values={{ velocities, unreadable: unreadableKeys, filled, format: (ms) => formatQuantity(units, "velocity", ms, { withUnit: false, decimals: units === "IP" ? 0 : 1 }) }}
-              />
-            )}
-          </section>
-          <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-            <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
-            <ChartBoundary>
-              <ProfileChart points={result.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
-            </ChartBoundary>
-          </section>
-        </div>
-      )}
+      {mapAndChart}
 
       {editable && (
         <section aria-labelledby={`${resultsId}-air`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
