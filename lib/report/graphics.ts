@@ -47,9 +47,9 @@ export function drawCrossSection(page: PDFPage, fonts: Fonts, t: ReportTraverse,
   for (const line of drawing.lines) {
     page.drawLine({ start: { x: X(line.x1), y: Y(line.y1) }, end: { x: X(line.x2), y: Y(line.y2) }, thickness: 0.5, color: SOFT, dashArray: [3, 2] });
     page.drawRectangle({ x: X(line.port.x) - 3, y: Y(line.port.y) - 3, width: 6, height: 6, color: ACCENT });
-    const label = `Port ${line.label}`;
-    const w = fonts.semibold.widthOfTextAtSize(label, 6.5);
-    page.drawText(label, { x: X(line.labelAt.x) - w / 2, y: Y(line.labelAt.y) - 2.5, size: 6.5, font: fonts.semibold, color: ACCENT });
+    const label = line.label;
+    const w = fonts.bold.widthOfTextAtSize(label, 7.5);
+    page.drawText(label, { x: X(line.labelAt.x) - w / 2, y: Y(line.labelAt.y) - 2.7, size: 7.5, font: fonts.bold, color: ACCENT });
   }
   const radius = Math.max(2.2, Math.min(6, drawing.pointRadius * k, (drawing.minSpacing * k) / 2 - 0.5));
   const labelled = radius >= 4;

@@ -435,19 +435,19 @@ function renderTraverse(flow: Flow, t: ReportTraverse, u: UnitSystem, kind: Repo
       ["Layout", `${t.rule}, ${t.lines} × ${t.pointsPerLine} points`],
       ["Readings", t.readingsKind === "velocity_pressure" ? "Pitot velocity pressures" : t.readingsKind === "velocity_actual" ? "Anemometer, actual velocity" : "Anemometer, standard velocity"],
       ["Taken", `${t.takenBy ?? "—"}, ${timeText(t.takenAt)}`],
-      ["Instruments", t.instruments.join("; ") || "—"],
       ["Integration", t.integration],
     ],
     2,
     8.6,
   );
+  flow.facts([["Instruments", t.instruments.join("; ") || "—"]], 1, 8.6);
   flow.space(6);
   // Drawing and chart side by side.
-  const box = 170;
-  const chartH = 190;
+  const box = 150;
+  const chartH = 168;
   flow.ensure(chartH + 8);
   const top = flow.y;
-  flow.page.drawText("Cross-section, looking downstream", { x: flow.geo.left, y: top - 8, size: 7, font: flow.fonts.semibold, color: SOFT });
+  flow.page.drawText("Cross-section: ports (squares) and points numbered", { x: flow.geo.left, y: top - 8, size: 7, font: flow.fonts.semibold, color: SOFT });
   drawCrossSection(flow.page, flow.fonts, t, flow.geo.left, top - 14, box);
   const chartX = flow.geo.left + box + 24;
   drawProfileChart(flow.page, flow.fonts, t, u, chartX, top, flow.geo.right - chartX, chartH);
@@ -480,28 +480,58 @@ function renderTraverse(flow: Flow, t: ReportTraverse, u: UnitSystem, kind: Repo
   flow.space(4);
 
   flow.heading("Readings", 3, 50);
-  const readingHeader = t.readingsKind === "velocity_pressure" ? `Velocity pressure, ${formatQuantity(u, "pressure", 1).replace(/^[\d.,]+ /, "")}` : `Velocity read, ${formatQuantity(u, "velocity", 1).replace(/^[\d.,]+ /, "")}`;
-  const depthUnit = formatQuantity(u, "dimension", 1).replace(/^[\d.,]+ /, "");
-  const velUnit = formatQuantity(u, "velocity", 1).replace(/^[\d.,]+ /, "");
-  flow.table(
-    [
-      { header: "Line", width: 0.6, align: "right" },
-      { header: "Point", width: 0.6, align: "right" },
-      { header: `Insertion depth, ${depthUnit}`, width: 1.2, align: "right" },
-      { header: readingHeader, width: 1.5, align: "right" },
-      { header: `Velocity, ${velUnit}`, width: 1.1, align: "right" },
-      { header: "Note", width: 2.2 },
-    ],
-    t.points.map((p) => [
-      String(p.line + 1),
-      String(p.point + 1),
-      formatQuantity(u, "dimension", p.depthMm, { withUnit: false }),
-      p.reading === null ? "not read" : t.readingsKind === "velocity_pressure" ? formatQuantity(u, "pressure", p.reading, { withUnit: false }) : formatQuantity(u, "velocity", p.reading, { withUnit: false }),
-      p.velocityMS !== null ? formatQuantity(u, "velocity", p.velocityMS, { withUnit: false }) : p.filledVelocityMS !== null ? `${formatQuantity(u, "velocity", p.filledVelocityMS, { withUnit: false })} (filled)` : "—",
-      [p.filledFrom ? `filled from ${p.filledFrom}` : "", p.beyondReach ? "read at the probe's reach from the wall" : ""].filter(Boolean).join("; "),
-    ]),
-    { size: 7.8 },
-  );
+  renderReadings(flow, t, u);
+}
+
+/**
+ * The readings: one row per point position (its insertion depth is the same on every line), one
+ * column per traverse line with the reading and the velocity, while the lines fit across the page;
+ * a row per point beyond that.
+ */
+function renderReadings(flow: Flow, t: ReportTraverse, u: UnitSystem): void {
+  const unitOf = (quantity: Parameters<typeof formatQuantity>[1]) => formatQuantity(u, quantity, 1).replace(/^[\d.,]+ /, "");
+  const readingUnit = t.readingsKind === "velocity_pressure" ? unitOf("pressure") : unitOf("velocity");
+  const readingText = (v: number | null) => (v === null ? "not read" : t.readingsKind === "velocity_pressure" ? formatQuantity(u, "pressure", v, { withUnit: false }) : formatQuantity(u, "velocity", v, { withUnit: false }));
+  const velocityText = (p: ReportTraverse["points"][number]) =>
+    p.velocityMS !== null ? formatQuantity(u, "velocity", p.velocityMS, { withUnit: false }) : p.filledVelocityMS !== null ? `${formatQuantity(u, "velocity", p.filledVelocityMS, { withUnit: false })}*` : "—";
+  const mark = (p: ReportTraverse["points"][number]) => (p.beyondReach ? "†" : "");
+  const what = t.readingsKind === "velocity_pressure" ? "velocity pressure" : "velocity read";
+  if (t.lines <= 6) {
+    flow.text(`Each line's cell: ${what} (${readingUnit}) / velocity (${unitOf("velocity")}).`, { size: 8, color: SOFT });
+    const columns = [
+      { header: "Point", width: 0.55, align: "right" as const },
+      { header: `Depth, ${unitOf("dimension")}`, width: 0.8, align: "right" as const },
+      ...Array.from({ length: t.lines }, (_, k) => ({ header: `Line ${k + 1}`, width: 1.25, align: "right" as const })),
+    ];
+    const rows: Cell[][] = [];
+    for (let i = 0; i < t.pointsPerLine; i++) {
+      const first = t.points.find((p) => p.point === i);
+      const row: Cell[] = [String(i + 1), first ? formatQuantity(u, "dimension", first.depthMm, { withUnit: false }) : "—"];
+      for (let k = 0; k < t.lines; k++) {
+        const p = t.points.find((x) => x.line === k && x.point === i);
+        row.push(p ? `${readingText(p.reading)} / ${velocityText(p)}${mark(p)}` : "—");
+      }
+      rows.push(row);
+    }
+    flow.table(columns, rows, { size: 7.8, width: Math.min(flow.contentWidth, 110 + t.lines * 85) });
+  } else {
+    flow.table(
+      [
+        { header: "Line", width: 0.6, align: "right" },
+        { header: "Point", width: 0.6, align: "right" },
+        { header: `Insertion depth, ${unitOf("dimension")}`, width: 1.2, align: "right" },
+        { header: `${what[0]!.toUpperCase()}${what.slice(1)}, ${readingUnit}`, width: 1.5, align: "right" },
+        { header: `Velocity, ${unitOf("velocity")}`, width: 1.1, align: "right" },
+      ],
+      t.points.map((p) => [String(p.line + 1), String(p.point + 1), formatQuantity(u, "dimension", p.depthMm, { withUnit: false }), readingText(p.reading), `${velocityText(p)}${mark(p)}`]),
+      { size: 7.8 },
+    );
+  }
+  const notes = [
+    t.points.some((p) => p.reading === null && p.filledVelocityMS !== null) ? "* not read: velocity filled from its counterpart for the mean." : "",
+    t.points.some((p) => p.beyondReach) ? "† closer to the wall than the probe head reaches: read at the probe's reach." : "",
+  ].filter(Boolean);
+  if (notes.length > 0) flow.text(notes.join(" "), { size: 8, color: SOFT });
 }
 
 function drawContents(flow: Flow, pageIndex: number, contents: ContentsEntry[]): void {
