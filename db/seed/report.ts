@@ -18,8 +18,6 @@ import { getDb } from "../client";
 import * as s from "../schema";
 import { engineAccuracy } from "@/lib/instruments/accuracy";
 import { computeReadingFlow, type ReadingValues } from "@/lib/terminals/reading";
-import { storageConfigured } from "@/lib/server/storage";
-import { certificationStatement } from "@/lib/server/supervisor";
 
 const LIBRARY_SITE = "Wrenfield Community Library";
 
@@ -83,6 +81,8 @@ export async function seedDemoReport(): Promise<DemoReportOutcome> {
   if (!library) return { issued: false, note: "No demo library project." };
   const [existing] = await db.select({ id: s.reports.id }).from(s.reports).where(eq(s.reports.projectId, library.id)).limit(1);
   if (existing) return { issued: false, note: "The demo library already has an issued report." };
+  // Server modules load only here: the launcher imports the database client (and so this seed) outside Next.
+  const { storageConfigured } = await import("@/lib/server/storage");
   if (!storageConfigured()) return { issued: false, note: "No object storage configured: the demo report was not issued." };
 
   const people = await db.select().from(s.users).where(inArray(s.users.email, ["tech@example.test", "cx@example.test", "engineer@example.test"]));
@@ -222,6 +222,7 @@ async function signSupervisorStatement(project: s.Project, tech: s.User, enginee
   const certificateNumber = designated?.certificateNumber ?? "GABS-2291";
   if (!designated)
     await db.insert(s.projectSupervisors).values({ projectId: project.id, userId: tech.id, certifyingBody, certificateNumber, designatedBy: engineerId, designatedAt: new Date(START - 86_400_000) });
+  const { certificationStatement } = await import("@/lib/server/supervisor");
   const supervisorId = designated?.userId ?? tech.id;
   const [supervisor] = await db.select().from(s.users).where(eq(s.users.id, supervisorId));
   if (!supervisor) return;
