@@ -139,8 +139,8 @@ export function drawProfileChart(page: PDFPage, fonts: Fonts, t: ReportTraverse,
 
   const mean = Y(toDisplay(units, "velocity", t.meanVelocityMS));
   page.drawLine({ start: { x: plotLeft, y: mean }, end: { x: plotRight, y: mean }, thickness: 0.8, color: ACCENT, dashArray: [5, 3] });
-  const meanLabel = fit(fonts.medium, `mean ${formatQuantity(units, "velocity", t.meanVelocityMS)}`);
-  page.drawText(meanLabel, { x: plotRight - fonts.medium.widthOfTextAtSize(meanLabel, 6.5), y: mean + 2.5, size: 6.5, font: fonts.medium, color: ACCENT });
+  // The mean's label goes in the legend, where no reading can sit under it.
+  const meanLabel = fit(fonts.medium, `Mean ${formatQuantity(units, "velocity", t.meanVelocityMS)}`);
 
   const legend: { label: string; kind: (typeof MARKERS)[number]; dash?: number[] }[] = [];
   for (let line = 0; line < t.lines; line++) {
@@ -155,6 +155,9 @@ export function drawProfileChart(page: PDFPage, fonts: Fonts, t: ReportTraverse,
   let lx = plotLeft;
   let ly = plotBottom - 32;
   let rows = 1;
+  page.drawLine({ start: { x: lx, y: ly + 2 }, end: { x: lx + 14, y: ly + 2 }, thickness: 0.8, color: ACCENT, dashArray: [5, 3] });
+  page.drawText(meanLabel, { x: lx + 18, y: ly, size: 6.5, font: fonts.medium, color: ACCENT });
+  lx += 24 + fonts.medium.widthOfTextAtSize(meanLabel, 6.5);
   for (const [i, item] of legend.entries()) {
     const w = 26 + fonts.regular.widthOfTextAtSize(item.label, 6.5);
     if (lx + w > plotRight) {
