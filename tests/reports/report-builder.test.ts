@@ -9,7 +9,8 @@ import { seedDemoReport } from "@/db/seed/report";
 import type { LocalObjectStore } from "@/lib/cli/local-object-store";
 import { approveReport, buildDraftReport, getReportReadiness, issueProjectReport, ReportFlowError } from "@/lib/server/report-approvals";
 import { verifyReportFile } from "@/lib/server/report-verify";
-import { getObjectBytes } from "@/lib/server/storage";
+import { getObjectBytes, putObject } from "@/lib/server/storage";
+import sharp from "sharp";
 import { DRAFT_MARK } from "@/lib/report/render";
 import { demoDatabase } from "../support/db";
 import { useLocalObjectStore } from "../support/object-store";
@@ -23,6 +24,16 @@ let issued: s.Report;
 beforeAll(async () => {
   store = await useLocalObjectStore();
   demo = await demoDatabase();
+  // A photo of the X1.1 traverse location in object storage, as an upload leaves it.
+  const [x11] = await demo.db
+    .select({ id: s.ductSections.id })
+    .from(s.ductSections)
+    .innerJoin(s.airSystems, eq(s.airSystems.id, s.ductSections.systemId))
+    .where(and(eq(s.airSystems.projectId, demo.library.id), eq(s.ductSections.tag, "X1.1")));
+  const jpeg = await sharp({ create: { width: 640, height: 480, channels: 3, background: { r: 150, g: 160, b: 170 } } }).jpeg().toBuffer();
+  const key = `projects/${demo.library.id}/sections/${x11!.id}/photos/test.jpg`;
+  await putObject({ key, body: jpeg, contentType: "image/jpeg" });
+  await demo.db.insert(s.photos).values({ projectId: demo.library.id, sectionId: x11!.id, objectKey: key, contentType: "image/jpeg", bytes: jpeg.length, width: 640, height: 480, caption: "Ports above the corridor ceiling", takenBy: demo.tech.id });
   const outcome = await seedDemoReport();
   expect(outcome.issued).toBe(true);
   issued = (await getLatestReport({ projectId: demo.library.id }))!;
@@ -63,6 +74,11 @@ describe("the demo's issued report", () => {
     expect(all).toContain("No accepted deviations.");
     expect(all).toContain("air side only");
     expect(all).toContain("Guild of Air Balancing Supervisors");
+    // The photo of the traverse location, embedded with its caption.
+    expect(all).toContain("EF-1 / X1.1: Ports above the corridor ceiling");
+    expect(all).not.toContain("No photos of traverse locations were attached.");
+    const doc = await PDFDocument.load(issuedPdf);
+    expect(doc.getPages().some((p) => p.node.Resources()?.toString().includes("/XObject"))).toBe(true);
   });
 
   it("carries a signature that verifies with the public key alone, and one flipped byte fails", async () => {
