@@ -20,7 +20,7 @@ test("the owner downloads the demo's closeout report, the verification page says
   expect(latest.status()).toBe(200);
   const pdf = Buffer.from(await latest.body());
   const pages = await readPdfText(pdf);
-  expect(pages.length).toBe(17);
+  expect(pages.length).toBe(16);
   const code = latest.headers()["x-airtally-verification-code"]!;
   for (const [i, p] of pages.entries()) {
     expect(p.text).toContain(`Page ${i + 1} of ${pages.length}`);
@@ -55,7 +55,7 @@ test("the engineer downloads a draft, sees what blocks the next revision, and ca
   await page.getByRole("link", { name: "Download a draft (PDF)" }).click();
   const pdf = fs.readFileSync(await (await download).path());
   const pages = await readPdfText(pdf);
-  expect(pages.length).toBeGreaterThan(17);
+  expect(pages.length).toBeGreaterThan(16);
   for (const p of pages) expect(p.text).toContain("Draft — not issued");
 
   // The API says the same in words, and refuses the issue with the blockers.

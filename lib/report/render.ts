@@ -18,7 +18,7 @@ export const AIR_SIDE_NOTE = "This report covers the air side only. Hydronic bal
 export const REVIEW_STATEMENT =
   "The results in this report are for the engineer of record's review. They defer to local codes and licensed practice; nothing here replaces the judgement of the licensed professionals responsible for the building.";
 const SIGNATURE_LIMITS =
-  "The server's digital signature proves that this file is byte for byte the one this Airtally deployment issued, and who approved it in the app. It is not a professional engineer's seal; seal rules are local. The certification by the TAB supervisor above is a person's statement and is separate from the file's signature.";
+  "The server's digital signature proves that this file is byte for byte the one this Airtally deployment issued, and who approved it in the app. It is not a professional engineer's seal; seal rules are local. The TAB supervisor's certification is a person's statement, separate from the file's signature.";
 
 const STATUS_WORDS: Record<ItemStatus, string> = {
   approved: "Approved",
@@ -317,7 +317,8 @@ export async function renderReport(model: ReportModel, options: RenderOptions = 
     for (const [j, photo] of shown.slice(k, k + 2).entries()) {
       const x = geo.left + j * (cellW + gap);
       try {
-        const bytes = Buffer.from(photo.base64!, "base64");
+        // A fresh array: pdf-lib reads the image through its ArrayBuffer from offset 0, and Node's pooled Buffers do not start there.
+        const bytes = Uint8Array.from(Buffer.from(photo.base64!, "base64"));
         const image = photo.format === "png" ? await doc.embedPng(bytes) : await doc.embedJpg(bytes);
         const s = Math.min(cellW / image.width, imgH / image.height);
         const w = image.width * s;
