@@ -51,6 +51,14 @@ test("the engineer downloads a draft, sees what blocks the next revision, and ca
   await expect(checklist).toContainText("TAB supervisor's certification signed: done");
   await expect(page.getByRole("button", { name: "Issue revision 2" })).toBeDisabled();
   await expectNoAxeViolations(page);
+  // For looking at the page as its users do: AIRTALLY_SCREENSHOTS=<dir> keeps a picture per screen size.
+  const shots = process.env.AIRTALLY_SCREENSHOTS;
+  if (shots) {
+    for (const [width, height] of [[1024, 768], [820, 1180], [1440, 900]] as const) {
+      await page.setViewportSize({ width, height });
+      await page.screenshot({ path: `${shots}/reports-${width}x${height}.png`, fullPage: true });
+    }
+  }
   const download = page.waitForEvent("download");
   await page.getByRole("link", { name: "Download a draft (PDF)" }).click();
   const pdf = fs.readFileSync(await (await download).path());

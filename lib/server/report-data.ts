@@ -24,14 +24,31 @@ import { judgeReading } from "@/lib/terminals/reading";
 import { designFlowAt, METHOD_LABELS, SETPOINT_LABELS, setpointsFor } from "@/lib/terminals/setpoints";
 import { buildAirflowView, type SectionView } from "./airflow-view";
 import { publicUrl } from "./public-url";
+import sharp from "sharp";
 import { getObjectBytes } from "./storage";
 import { getSupervisorState } from "./supervisor";
 import { designOf } from "./terminal-reading-json";
 
-/** The most photos a report embeds (the newest per section first); each is scaled on its page. */
-export const MAX_REPORT_PHOTOS = 40;
-/** A photo larger than this is left out rather than swelling the report (the upload limit is 10 MB). */
-const MAX_PHOTO_BYTES = 6 * 1024 * 1024;
+/** The most photos a report embeds (the newest first); each is scaled on its page. */
+export const MAX_REPORT_PHOTOS = 24;
+/** Photos are embedded at most this many pixels on their longer side: sharp on paper, small in the file. */
+const PHOTO_EMBED_PX = 1400;
+
+/** A stored photo as the report embeds it: upright (its EXIF orientation applied), scaled down, JPEG. */
+async function photoForReport(key: string): Promise<{ base64: string; width: number; height: number } | null> {
+  const bytes = await getObjectBytes(key).catch(() => null);
+  if (!bytes) return null;
+  try {
+    const { data, info } = await sharp(bytes, { limitInputPixels: 50_000_000 })
+      .rotate()
+      .resize({ width: PHOTO_EMBED_PX, height: PHOTO_EMBED_PX, fit: "inside", withoutEnlargement: true })
+      .jpeg({ quality: 82 })
+      .toBuffer({ resolveWithObject: true });
+    return { base64: data.toString("base64"), width: info.width, height: info.height };
+  } catch {
+    return null;
+  }
+}
 
 export interface LoadReportOptions {
   projectId: string;
@@ -355,19 +372,15 @@ export async function loadReportModel(options: LoadReportOptions): Promise<Repor
   const reportPhotos: ReportPhoto[] = [];
   for (const p of photoRows) {
     if (p.contentType !== "image/jpeg" && p.contentType !== "image/png") continue;
-    let base64: string | null = null;
-    if (options.withPhotoBytes !== false && p.bytes <= MAX_PHOTO_BYTES) {
-      const bytes = await getObjectBytes(p.objectKey).catch(() => null);
-      base64 = bytes ? Buffer.from(bytes).toString("base64") : null;
-    }
+    const embedded = options.withPhotoBytes === false ? null : await photoForReport(p.objectKey);
     reportPhotos.push({
       sectionTag: sectionTag.get(p.sectionId) ?? "",
       systemTag: systemTagOfSection.get(p.sectionId) ?? "",
       caption: p.caption,
       takenBy: p.takenBy,
       takenAt: p.createdAt.toISOString(),
-      format: p.contentType === "image/png" ? "png" : "jpeg",
-      base64,
+      format: "jpeg",
+      base64: embedded?.base64 ?? null,
       width: p.width,
       height: p.height,
     });
