@@ -13,6 +13,7 @@ async function openReports(page: import("@playwright/test").Page, email: string)
 }
 
 test("the owner downloads the demo's closeout report, the verification page says it is genuine, and a modified copy is refused", async ({ page }) => {
+  test.setTimeout(60_000);
   await openReports(page, "owner@example.test");
   await expect(page.getByText("Revision 1", { exact: true })).toBeVisible();
   const projectId = page.url().match(/\/projects\/([^/]+)\/reports$/)![1]!;
@@ -45,6 +46,8 @@ test("the owner downloads the demo's closeout report, the verification page says
 });
 
 test("the engineer downloads a draft, sees what blocks the next revision, and cannot issue it yet", async ({ page }) => {
+  // The draft is built on request from the whole project's data: allow for a busy machine.
+  test.setTimeout(90_000);
   await openReports(page, "engineer@example.test");
   const checklist = page.getByRole("list", { name: "Readiness checklist" });
   await expect(checklist).toContainText("Engineer of record's approval: missing");
