@@ -98,8 +98,9 @@ test("the TAB supervisor is designated on the Members page and signs the stateme
   await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: "Members" }).click();
   const card = page.getByRole("region", { name: "TAB supervisor" });
   // The demo's report step designated and signed already: the form sits behind "Change the designation".
+  await expect(card.getByRole("heading", { name: "TAB supervisor" })).toBeVisible();
   const change = card.getByText("Change the designation");
-  if (await change.isVisible()) await change.click();
+  if ((await change.count()) > 0) await change.click();
   await card.getByLabel("Technician").selectOption({ label: "Tomasz Reyes" });
   await card.getByLabel("Certifying body").fill("Wrenfield Balancing Board");
   await card.getByLabel("Certificate number").fill("TB-0417");
