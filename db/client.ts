@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from "node:async_hooks";
 import path from "node:path";
 import { PGlite } from "@electric-sql/pglite";
 import { drizzle as drizzlePglite, type PgliteDatabase } from "drizzle-orm/pglite";
@@ -72,6 +73,10 @@ export async function openDatabase(options: OpenOptions = {}): Promise<DatabaseH
 
 const globalForDb = globalThis as unknown as { airtallyDb?: Promise<DatabaseHandle> };
 
+// The demo seed's last step (issuing the demo report) runs through the ordinary services, which ask
+// getDb() for the database while it is still being opened: inside that step they get the open handle.
+const openingHandle = new AsyncLocalStorage<DatabaseHandle>();
+
 /** Demo mode (`npm run demo`) seeds the invented demo project once, on first open. */
 export function demoMode(): boolean {
   return process.env.AIRTALLY_DEMO === "1";
@@ -82,9 +87,11 @@ export function demoMode(): boolean {
  * serialised by PGlite itself) or one pg pool, opened on first use and kept across hot reloads.
  */
 export function getDatabaseHandle(): Promise<DatabaseHandle> {
+  const opening = openingHandle.getStore();
+  if (opening) return Promise.resolve(opening);
   globalForDb.airtallyDb ??= (async () => {
     const handle = await openDatabase({ url: process.env.DATABASE_URL || undefined });
-    if (demoMode()) await seedDemo(handle.db);
+    if (demoMode()) await openingHandle.run(handle, () => seedDemo(handle.db, { withReport: true }));
     return handle;
   })().catch((err) => {
     globalForDb.airtallyDb = undefined;

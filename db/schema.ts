@@ -775,3 +775,31 @@ export type SupervisorSignature = typeof supervisorSignatures.$inferSelect;
 export type Photo = typeof photos.$inferSelect;
 export type InstrumentCertificate = typeof instrumentCertificates.$inferSelect;
 export type Report = typeof reports.$inferSelect;
+
+/**
+ * A report-level approval: the commissioning agent or the engineer of record approving the closeout
+ * report's content as it stood, for the revision it would become. The fingerprint is the SHA-256 of
+ * that content (lib/server/report-approvals.ts): any later change of the data makes it differ, and
+ * the approval no longer counts. Rows are kept, never changed, as the record of who approved what.
+ */
+export const reportApprovals = pgTable(
+  "report_approvals",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    userId: uuid("user_id").references(() => users.id, { onDelete: "set null" }),
+    name: text("name").notNull(),
+    role: memberRole("role").notNull(),
+    forRevision: integer("for_revision").notNull(),
+    fingerprint: text("fingerprint").notNull(),
+    comment: text("comment").notNull().default(""),
+    approvedAt: timestamp("approved_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index("report_approvals_project_idx").on(t.projectId, t.approvedAt),
+    check("report_approvals_role", sql`${t.role} in ('commissioning_agent', 'engineer')`),
+  ],
+);
+export type ReportApprovalRow = typeof reportApprovals.$inferSelect;

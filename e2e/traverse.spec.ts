@@ -86,7 +86,8 @@ for (const viewport of VIEWPORTS) {
     test(`a technician traverses ${viewport.section} with the keyboard only, loses the network midway, and every reading reaches the server`, async ({ page, context, playwright, baseURL }) => {
       test.setTimeout(180_000);
       const projectId = await openFieldWork(page);
-      const start = page.getByRole("link", { name: `Start traverse of ${viewport.section}`, exact: true });
+      // The demo's exhaust sections carry approved traverses (its closeout report is issued): this is their re-traverse.
+      const start = page.getByRole("link", { name: `Re-traverse of ${viewport.section}`, exact: true });
       await start.focus();
       await page.keyboard.press("Enter");
       await expect(page.getByRole("heading", { name: new RegExp(`Start a traverse of ${viewport.section.replace(".", "\\.")}`) })).toBeVisible();

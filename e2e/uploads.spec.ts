@@ -34,15 +34,16 @@ test("a technician attaches a photo from a file on the Field work page and sees 
   await signIn.signIn("tech@example.test");
   await page.getByRole("link", { name: /Wrenfield Library/ }).click();
   await page.getByRole("navigation", { name: "Project" }).getByRole("link", { name: "Field work" }).click();
-  const row = page.getByRole("listitem").filter({ hasText: "X1 ·" }).first();
+  // S1.3 awaits review: its photos can still be removed (the demo's exhaust sections are approved).
+  const row = page.getByRole("listitem").filter({ hasText: "S1.3 ·" }).first();
   await expect(row.getByText("No photo of this location yet.")).toBeVisible();
 
-  const input = row.getByLabel("Add a photo of X1");
+  const input = row.getByLabel("Add a photo of S1.3");
   await expect(input).toHaveAttribute("capture", "environment");
   await expect(input).toHaveAttribute("accept", "image/*");
   await input.setInputFiles({ name: "exhaust-port.jpg", mimeType: "image/jpeg", buffer: await photoJpeg() });
   await expect(row.getByText('"exhaust-port.jpg" saved.')).toBeVisible();
-  const thumb = row.getByRole("list", { name: "Photos of X1" }).getByRole("img");
+  const thumb = row.getByRole("list", { name: "Photos of S1.3" }).getByRole("img");
   await expect(thumb).toHaveCount(1);
   // Thumbnails load lazily: bring the row's into view, as the technician scrolling to it would.
   await thumb.scrollIntoViewIfNeeded();

@@ -5,6 +5,7 @@ import * as s from "../schema";
 import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./clinic";
 import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
+import { seedDemoReport } from "./report";
 import { seedTerminalReadings } from "./terminal-readings";
 
 /**
@@ -23,10 +24,18 @@ export const DEMO_ACCOUNTS = [
 
 export type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
 
-/** Seeds the demo data once; a second call finds the demo accounts and does nothing. */
-export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
+/**
+ * Seeds the demo data once; a second call finds the demo accounts and adds nothing. With
+ * `withReport` (the demo server), a last step completes the library's exhaust system and issues
+ * the demo's closeout report (db/seed/report.ts) when the library has none yet; it runs through the
+ * process database and needs object storage.
+ */
+export async function seedDemo(db: Database, options: { withReport?: boolean } = {}): Promise<{ seeded: boolean }> {
   const existing = await db.select({ id: s.users.id }).from(s.users).where(eq(s.users.email, DEMO_ACCOUNTS[0].email));
-  if (existing.length > 0) return { seeded: false };
+  if (existing.length > 0) {
+    if (options.withReport) await reportStep();
+    return { seeded: false };
+  }
 
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
@@ -84,5 +93,16 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
       detail: { note: "Invented demo scenario" },
     });
   });
+  if (options.withReport) await reportStep();
   return { seeded: true };
+}
+
+async function reportStep(): Promise<void> {
+  try {
+    const outcome = await seedDemoReport();
+    console.log(`[demo] ${outcome.note}`);
+  } catch (err) {
+    // The demo stays usable without its report; say why it is missing.
+    console.error("[demo] The demo closeout report could not be issued:", err);
+  }
 }

@@ -144,6 +144,11 @@ export const ENDPOINTS: Endpoint[] = [
   // Issued reports: the demo's library has one (e2e/support/prepare-data.ts), the clinic none.
   { method: "GET", route: "/api/v1/projects/[projectId]/reports", path: "/api/v1/projects/{projectId}/reports", rule: { action: "report.download" }, ok: 200 },
   { method: "GET", route: "/api/v1/projects/[projectId]/reports/latest.pdf", path: "/api/v1/projects/{projectId}/reports/latest.pdf", rule: { action: "report.download" }, ok: 200, okOnSecondProject: 404 },
+  // The issuing flow: invalid bodies answer 400, so the matrix approves and issues nothing.
+  { method: "POST", route: "/api/v1/projects/[projectId]/reports", path: "/api/v1/projects/{projectId}/reports", rule: { action: "report.issue" }, body: { reason: 5 }, ok: 400 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports/draft.pdf", path: "/api/v1/projects/{projectId}/reports/draft.pdf", rule: { action: "report.download" }, ok: 200 },
+  { method: "GET", route: "/api/v1/projects/[projectId]/reports/readiness", path: "/api/v1/projects/{projectId}/reports/readiness", rule: { action: "report.download" }, ok: 200 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/reports/approvals", path: "/api/v1/projects/{projectId}/reports/approvals", rule: { action: "report.approve" }, body: { comment: 5 }, ok: 400 },
   { method: "GET", route: "/api/v1/projects/[projectId]/reports/[reportId]/pdf", path: `/api/v1/projects/{projectId}/reports/${UNKNOWN_ID}/pdf`, rule: { action: "report.download" }, ok: 404 },
   { method: "GET", route: "/api/v1/projects/[projectId]/reports/[reportId]/signature", path: `/api/v1/projects/{projectId}/reports/${UNKNOWN_ID}/signature`, rule: { action: "report.download" }, ok: 404 },
   // Verification is public; a JSON body is not the multipart file it reads.

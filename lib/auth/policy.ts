@@ -16,6 +16,7 @@ export const ACTIONS = [
   "design.edit",
   "deviation.accept",
   "report.issue",
+  "report.approve",
   "report.download",
   "members.manage",
   "members.view",
@@ -40,7 +41,10 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   "design.view": ALL,
   "design.edit": ["engineer"],
   "deviation.accept": ["engineer"],
-  "report.issue": ["commissioning_agent"],
+  // The commissioning agent and the engineer of record each approve the report's content; either of
+  // them (or a site administrator) then issues it once the supervisor has signed.
+  "report.approve": ["commissioning_agent", "engineer"],
+  "report.issue": ["commissioning_agent", "engineer"],
   "report.download": ALL,
   // Changing or removing an engineer of record, and anything about oneself, stays with site administrators.
   "members.manage": [],
@@ -59,6 +63,7 @@ const ADMIN_ACTIONS: ReadonlySet<Action> = new Set([
   "design.view",
   "design.edit",
   "report.download",
+  "report.issue",
   "members.manage",
   "members.view",
   "members.invite",

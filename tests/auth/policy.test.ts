@@ -73,6 +73,20 @@ describe("role policy", () => {
     expect(can(member, "engineer", "members.manage")).toBe(false);
   });
 
+  it("lets the commissioning agent and the engineer approve the report, them and site administrators issue it, and nobody else", () => {
+    for (const role of ["commissioning_agent", "engineer"] as const) {
+      expect(can(member, role, "report.approve")).toBe(true);
+      expect(can(member, role, "report.issue")).toBe(true);
+    }
+    for (const role of ["technician", "owner"] as const) {
+      expect(can(member, role, "report.approve")).toBe(false);
+      expect(can(member, role, "report.issue")).toBe(false);
+    }
+    // Administrators issue on the approvals of others but approve nothing themselves.
+    expect(can(admin, null, "report.issue")).toBe(true);
+    expect(can(admin, null, "report.approve")).toBe(false);
+  });
+
   it("lets only technicians attach photos and sign as TAB supervisor; administrators sign nothing", () => {
     expect(can(member, "technician", "photo.add")).toBe(true);
     expect(can(member, "engineer", "photo.add")).toBe(false);

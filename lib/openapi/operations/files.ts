@@ -1,3 +1,4 @@
+import { reportApprovalSchema, reportIssueSchema } from "@/lib/validation/reports";
 import type { Operation } from "../registry";
 
 const P = "/api/v1/projects/{projectId}";
@@ -31,6 +32,40 @@ export const fileOperations: Operation[] = [
     errors: [400, 403, 404, 408, 413, 415],
   },
   { method: "get", path: `${P}/reports`, tag: "Reports", summary: "Every issued revision of the closeout report, newest first", roles: "every member", responses: { "200": { description: "`{reports}`" } }, errors: [404] },
+  {
+    method: "post",
+    path: `${P}/reports`,
+    tag: "Reports",
+    summary: "Issue the next revision of the closeout report from approved data",
+    description:
+      "Needs the commissioning agent's and the engineer of record's approvals of the content as it stands and the TAB supervisor's signed statement. The PDF is built from approved data only (items not approved are listed as excluded), hashed, signed and stored. `reason` is required from revision 2 on (400 naming it). 409 answers `{error, blockers: [..]}` with what stands in the way.",
+    roles: "commissioning agent, engineer, site administrator",
+    body: reportIssueSchema,
+    responses: { "201": { description: "`{report}`" } },
+    errors: [400, 403, 404, 409],
+  },
+  { method: "get", path: `${P}/reports/draft.pdf`, tag: "Reports", summary: "A draft of the closeout report from the data as they stand (every page marked as a draft; not verifiable)", roles: "every member", responses: { "200": { description: "The PDF.", contentType: "application/pdf" } }, errors: [404] },
+  {
+    method: "get",
+    path: `${P}/reports/readiness`,
+    tag: "Reports",
+    summary: "What blocks issuing the report, in words",
+    description: "`{readiness: {ready, revision, blockers, excluded, approvals: [{role, title, approval, current}], supervisor: {designated, name, signed, signedAt}, fingerprint}}`.",
+    roles: "every member",
+    responses: { "200": { description: "`{readiness}`" } },
+    errors: [404],
+  },
+  {
+    method: "post",
+    path: `${P}/reports/approvals`,
+    tag: "Reports",
+    summary: "Approve the report's content as it stands now",
+    description: "Records the caller's approval (as commissioning agent or engineer of record) with a fingerprint of the approved data for the next revision; a later change of the data voids it. 201 `{readiness}`; 409 when nothing is approved to report.",
+    roles: "commissioning agent, engineer",
+    body: reportApprovalSchema,
+    responses: { "201": { description: "`{readiness}`" } },
+    errors: [400, 403, 404, 409],
+  },
   { method: "get", path: `${P}/reports/latest.pdf`, tag: "Reports", summary: "The current issued closeout report (404 while none is issued)", roles: "every member", responses: { "200": { description: "The PDF, exactly as issued.", contentType: "application/pdf" } }, errors: [404] },
   { method: "get", path: `${P}/reports/{reportId}/pdf`, tag: "Reports", summary: "One issued revision's PDF", roles: "every member", responses: { "200": { description: "The PDF.", contentType: "application/pdf" } }, errors: [404] },
   { method: "get", path: `${P}/reports/{reportId}/signature`, tag: "Reports", summary: "One issued revision's Ed25519 signature (64 bytes) for offline checking", roles: "every member", responses: { "200": { description: "The raw signature.", contentType: "application/octet-stream" } }, errors: [404] },
