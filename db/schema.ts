@@ -543,7 +543,7 @@ export const verificationSamples = pgTable(
     tolerancePct: doublePrecision("tolerance_pct").notNull(),
     allowedFailures: integer("allowed_failures").notNull(),
     /** How many candidates there were, and the ids in the order they were considered (the population). */
-    population: jsonb("population").$type<{ kind: SampleItemKind; id: string }[]>().notNull(),
+    population: jsonb("population").$type<{ kind: SampleItemKind; id: string; tag: string }[]>().notNull(),
     status: sampleStatus("status").notNull().default("open"),
     agreedCount: integer("agreed_count").notNull().default(0),
     disagreedCount: integer("disagreed_count").notNull().default(0),
