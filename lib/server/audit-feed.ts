@@ -48,7 +48,7 @@ export async function listProjectAudit(project: Project, query: AuditQuery) {
         detail: rest,
       };
     }),
-    nextBefore: rows.length > limit ? (page[page.length - 1]?.id ?? null) : null,
+    nextBefore: rows.length > limit ? (page[page.length - 1]?.entry.id ?? null) : null,
     limit,
   };
 }
