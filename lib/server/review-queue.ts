@@ -80,6 +80,7 @@ export async function reviewQueue(project: Project) {
       uncertaintyShown: r ? formatExpandedUncertainty(r.uncertainty.expanded) : null,
       quality: r ? { verdict: r.quality.verdict, reasons: r.quality.reasons } : null,
       warnings: r ? r.warnings : s.reduction && !s.reduction.ok ? [s.reduction.message] : [],
+      terminals: null as { read: number; of: number; within: number; outside: number; readings: number } | null,
       conditions: t.conditionsId ? (conditionsById.get(t.conditionsId) ?? null) : null,
       lastReview: lastDecision(decisions.filter((d) => d.traverseId === t.id)),
     };
@@ -137,7 +138,7 @@ export async function reviewQueue(project: Project) {
         ...(latest.size < terminalCount ? [`${terminalCount - latest.size} of ${terminalCount} terminals have no reading in this set.`] : []),
         ...(outside > 0 ? [`${outside} of ${latest.size} terminals read outside their tolerance.`] : []),
       ],
-      terminals: { read: latest.size, of: terminalCount, within, outside, readings: readings.length },
+      terminals: { read: latest.size, of: terminalCount, within, outside, readings: readings.length } as { read: number; of: number; within: number; outside: number; readings: number } | null,
       conditions: null,
       lastReview: lastDecision(decisions.filter((d) => d.terminalSetId === set.id)),
     };

@@ -8,6 +8,7 @@ import { getTraverseInProject, type TraverseInProject } from "@/db/queries/trave
 import { airSystems, instruments as instrumentsTable, reviews, terminalSets, traverses, type AirSystem, type Project, type TerminalSet, type Traverse } from "@/db/schema";
 import type { SessionUser } from "@/db/queries/users";
 import { calibrationProblems } from "@/lib/instruments/usability";
+import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
 import type { ReviewDecisionBody, SubmitBody, SystemReviewBody } from "@/lib/validation/review";
 import type { DbOrTx } from "./mailer";
 import { notifyApproved, notifyReturned, notifySubmitted, type ReviewItem } from "./notify";
@@ -35,19 +36,7 @@ const setLabel = (set: TerminalSet, system: AirSystem) => `terminal readings of 
  * within calibration (or a stated reason). Empty when it can go.
  */
 export async function traverseSubmissionProblems(found: TraverseInProject, project: Project): Promise<Record<string, string>> {
-  const resource = await traverseResource(found, project);
-  const fields: Record<string, string> = {};
-  if (resource.resultError) fields.readings = `cannot be reduced: ${resource.resultError.message}`;
-  else if (resource.result && resource.result.counts.notRead > 0) {
-    const missing: string[] = [];
-    resource.readings.forEach((row, k) => row.forEach((v, i) => v === null && !resource.unreadable.some(([a, b]) => a === k && b === i) && missing.push(`line ${k + 1} point ${i + 1}`)));
-    fields.readings = `${resource.result.counts.notRead} of ${resource.result.counts.points} points are neither read nor marked unreadable (${missing.slice(0, 6).join(", ")}${missing.length > 6 ? ", …" : ""}): read them, or mark an obstructed point unreadable`;
-  }
-  if (resource.air.dryBulbC === null) fields["air.dryBulbC"] = "is not recorded: give the dry-bulb temperature at the plane";
-  if (resource.air.relativeHumidityPct === null && resource.air.wetBulbC === null) fields["air.relativeHumidityPct"] = "is not recorded: give the relative humidity or the wet-bulb temperature at the plane";
-  if (!resource.conditionsId) fields.conditionsId = "is not recorded: name the operating conditions the readings were taken under (Field work → operating conditions)";
-  Object.assign(fields, resource.instrument.calibrationProblems ?? {});
-  return fields;
+  return traverseSubmissionProblemsOf(await traverseResource(found, project));
 }
 
 /**
