@@ -5,6 +5,7 @@ import * as s from "../schema";
 import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./clinic";
 import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
+import { seedReviewStory } from "./review";
 import { seedTerminalReadings } from "./terminal-readings";
 
 /**
@@ -74,6 +75,7 @@ export async function seedDemo(db: Database): Promise<{ seeded: boolean }> {
     await seedClinic(tx, clinic!.id);
     await seedFieldKit(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
     await seedTerminalReadings(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
+    await seedReviewStory(tx, { projectId: library!.id, technicianId: userId("tech@example.test"), reviewerId: userId("cx@example.test") });
 
     await tx.insert(s.auditLog).values({
       userId: userId("admin@example.test"),

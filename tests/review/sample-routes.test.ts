@@ -149,3 +149,15 @@ describe("the agent's readings", () => {
     expect(entries.length).toBe(1);
   });
 });
+
+describe("the demo's review story", () => {
+  it("holds a drawn sample of the approved branches with the agent's readings, reproduced from its seed", async () => {
+    as("owner@example.test");
+    const res = await callRoute(samplesRoute.GET, { path: `/api/v1/projects/${library}/samples?systemId=${systems["AHU-1"]}`, params: { projectId: library } });
+    const demo = res.body.samples.find((x: { seed: number }) => x.seed === 2026112401);
+    expect(demo.items.map((i: { tag: string }) => i.tag)).toEqual(["S1.1", "S1.2"]);
+    expect(demo.reproduced).toBe(true);
+    expect(demo.items.every((i: { agrees: boolean; witnessed: boolean }) => i.agrees && i.witnessed)).toBe(true);
+    expect(demo.outcome).toMatchObject({ agreed: 2, disagreed: 0, recommendReturn: false });
+  });
+});
