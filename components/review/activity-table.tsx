@@ -13,11 +13,14 @@ import { AUDIT_KINDS } from "@/lib/validation/review";
 
 const PAGE = 100;
 
+/** Numbers to four significant figures: the record keeps full precision, the table is for reading. */
+const shown = (x: unknown): string => (typeof x === "number" ? String(Number(x.toPrecision(4))) : typeof x === "object" && x !== null ? JSON.stringify(x) : String(x));
+
 function values(v: unknown): string {
   if (v === null || v === undefined) return "";
-  if (typeof v !== "object") return String(v);
+  if (typeof v !== "object") return shown(v);
   return Object.entries(v as Record<string, unknown>)
-    .map(([k, x]) => `${k}: ${typeof x === "object" && x !== null ? JSON.stringify(x) : String(x)}`)
+    .map(([k, x]) => `${k}: ${shown(x)}`)
     .join("; ")
     .slice(0, 400);
 }

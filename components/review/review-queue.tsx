@@ -21,6 +21,8 @@ const helper = createColumnHelper<typeof features, QueueItem>();
 const STATUS_ORDER = { submitted: 0, returned: 1, approved: 2, draft: 3 } as const;
 const PLANE = { good: "Good plane", marginal: "Marginal plane", poor: "Poor plane" } as const;
 type StatusFilter = "" | "submitted" | "returned" | "approved";
+/** Columns left out on portrait tablets: the plane's verdict is in each row's details. */
+const NARROW_HIDDEN = new Set(["plane"]);
 
 const pct = (v: number | null) => (v === null ? "—" : `${v.toFixed(0)} %`);
 const when = (iso: string | null) => (iso ? new Date(iso).toISOString().slice(0, 16).replace("T", " ") + " UTC" : "—");
@@ -183,7 +185,7 @@ export function ReviewQueue({ projectId, initial, units, canDecide }: { projectI
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   return (
-                    <th key={header.id} scope="col" className="py-2 pr-3" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
+                    <th key={header.id} scope="col" className={`py-2 pr-3 ${NARROW_HIDDEN.has(header.column.id) ? "hidden lg:table-cell" : ""}`} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
                       {header.column.getCanSort() ? (
                         <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 text-left font-semibold">
                           <table.FlexRender header={header} />
@@ -203,7 +205,7 @@ export function ReviewQueue({ projectId, initial, units, canDecide }: { projectI
               <Fragment key={row.id}>
                 <tr className="border-b border-line align-top">
                   {row.getAllCells().map((cell) => (
-                    <td key={cell.id} className="py-2 pr-3">
+                    <td key={cell.id} className={`py-2 pr-3 ${NARROW_HIDDEN.has(cell.column.id) ? "hidden lg:table-cell" : ""} ${cell.column.id === "item" ? "min-w-36" : ""}`}>
                       <table.FlexRender cell={cell} />
                     </td>
                   ))}
