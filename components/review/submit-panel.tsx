@@ -12,15 +12,7 @@ import { Button } from "@/components/ui/button";
 import { ApiError } from "@/lib/api-client";
 import { problemLabel } from "@/lib/review/submission";
 
-export function SubmitPanel({
-  what,
-  status,
-  problems,
-  pendingOnDevice,
-  online,
-  lastReview,
-  onSubmit,
-}: {
+export interface SubmitPanelProps {
   /** "the traverse of S1.3", "the terminal readings of AHU-1". */
   what: string;
   status: "draft" | "submitted" | "approved" | "returned";
@@ -30,9 +22,14 @@ export function SubmitPanel({
   online: boolean;
   lastReview: { decision: "approved" | "returned"; comment: string; reviewerName: string | null; at: string } | null;
   onSubmit: () => Promise<unknown>;
-}) {
+}
+
+export function SubmitPanel(props: SubmitPanelProps) {
+  const { what, problems, pendingOnDevice, online, lastReview, onSubmit } = props;
   const router = useRouter();
   const [done, setDone] = useState(false);
+  // Submitted here: shown at once, before the page's refresh brings the new state.
+  const status = done ? "submitted" : props.status;
   const mutation = useMutation({
     mutationFn: onSubmit,
     onSuccess: () => {

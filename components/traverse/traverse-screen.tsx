@@ -139,18 +139,19 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
       {canRecord && (
         <SubmitPanel
           what={`the traverse of ${server.sectionTag}`}
-          status={server.status}
+          // Status and decisions change only by submission and review, which reload the page: the page's value is current.
+          status={initial.status}
           problems={traverseSubmissionProblemsOf(server)}
           pendingOnDevice={draft.syncState !== "saved"}
           online={draft.online}
-          lastReview={server.lastReview}
+          lastReview={initial.lastReview}
           onSubmit={() => reviewApi.submitTraverse(projectId, initial.id)}
         />
       )}
-      {!canRecord && server.lastReview && (
+      {!canRecord && initial.lastReview && (
         <p role="note" className="rounded-card border border-line-strong bg-paper-sunk p-3">
-          {server.lastReview.decision === "approved" ? "Approved" : "Returned"} by {server.lastReview.reviewerName ?? "the commissioning agent"}
-          {server.lastReview.comment ? `: “${server.lastReview.comment}”` : "."}
+          {initial.lastReview.decision === "approved" ? "Approved" : "Returned"} by {initial.lastReview.reviewerName ?? "the commissioning agent"}
+          {initial.lastReview.comment ? `: “${initial.lastReview.comment}”` : "."}
         </p>
       )}
       {!editable && (
