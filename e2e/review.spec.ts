@@ -59,8 +59,10 @@ test("the technician submits, the agent samples and returns, the technician resu
   const x1 = design.sections.find((s) => s.tag === "X1")!;
   const ef = design.systems.find((s) => s.tag === "EF-1")!;
   const { conditions } = (await (await page.request.get(`/api/v1/projects/${projectId}/systems/${ef.id}/conditions`)).json()) as { conditions: { id: string }[] };
+  const { instruments } = (await (await page.request.get("/api/v1/instruments?kind=manometer")).json()) as { instruments: { id: string; calibrationStatus: { status: string } }[] };
+  const manometer = instruments.find((i) => i.calibrationStatus.status === "ok" || i.calibrationStatus.status === "due-soon")!;
   const started = await page.request.post(`/api/v1/projects/${projectId}/traverses`, {
-    data: { sectionId: x1.id, method: "log-linear", lines: 2, pointsPerLine: 8, air: { dryBulbC: 21.5, relativeHumidityPct: 42, staticPa: -180 }, conditionsId: conditions[0]!.id },
+    data: { sectionId: x1.id, method: "log-linear", lines: 2, pointsPerLine: 8, air: { dryBulbC: 21.5, relativeHumidityPct: 42, staticPa: -180 }, conditionsId: conditions[0]!.id, instrument: { readingInstrumentId: manometer.id } },
   });
   expect(started.status()).toBe(201);
   const traverse = ((await started.json()) as { traverse: { id: string; version: number } }).traverse;

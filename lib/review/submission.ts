@@ -12,7 +12,8 @@ export interface SubmittableTraverse {
   resultError: { message: string } | null;
   air: { dryBulbC: number | null; relativeHumidityPct: number | null; wetBulbC: number | null };
   conditionsId: string | null;
-  instrument: { calibrationProblems: Record<string, string> | null };
+  readingsKind?: string;
+  instrument: { readingInstrumentId?: string | null; calibrationProblems: Record<string, string> | null };
 }
 
 export function traverseSubmissionProblemsOf(t: SubmittableTraverse): Record<string, string> {
@@ -26,6 +27,8 @@ export function traverseSubmissionProblemsOf(t: SubmittableTraverse): Record<str
   if (t.air.dryBulbC === null) fields["air.dryBulbC"] = "is not recorded: give the dry-bulb temperature at the plane";
   if (t.air.relativeHumidityPct === null && t.air.wetBulbC === null) fields["air.relativeHumidityPct"] = "is not recorded: give the relative humidity or the wet-bulb temperature at the plane";
   if (!t.conditionsId) fields.conditionsId = "is not recorded: name the operating conditions the readings were taken under (Field work → operating conditions)";
+  if (t.instrument.readingInstrumentId === null)
+    fields["instrument.readingInstrumentId"] = `is not recorded: name the ${t.readingsKind && t.readingsKind !== "velocity_pressure" ? "anemometer" : "manometer"} the points were read with, from the instrument register`;
   Object.assign(fields, t.instrument.calibrationProblems ?? {});
   return fields;
 }
