@@ -81,7 +81,7 @@ test("the technician submits, the agent samples and returns, the technician resu
   await signIn(page, "cx@example.test");
   await page.goto(`/projects/${projectId}/review`);
   await expect(page.getByRole("heading", { name: "Review queue" })).toBeVisible();
-  await page.getByLabel("System").selectOption({ label: `EF-1 — ${ef.name}` });
+  await page.getByLabel("System", { exact: true }).selectOption({ label: `EF-1 — ${ef.name}` });
   const row = page.getByRole("row", { name: /EF-1 \/ X1/ });
   await expect(row).toBeVisible();
   await page.getByRole("button", { name: /Draw a verification sample of EF-1/ }).click();
