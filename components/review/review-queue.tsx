@@ -240,7 +240,7 @@ export function ReviewQueue({ projectId, initial, units, canDecide }: { projectI
           {systemsWithSubmitted.map((s) => (
             <details key={s.id} className="rounded-card border border-line p-3">
               <summary className="min-h-touch cursor-pointer content-center font-semibold">
-                {s.tag}: {data.items.filter((i) => i.systemId === s.id && i.status === "submitted").length} submitted items
+                {s.tag}: {submittedCount(data.items, s.id)} submitted {submittedCount(data.items, s.id) === 1 ? "item" : "items"}
               </summary>
               <div className="mt-3">
                 <DecisionForm
@@ -258,6 +258,10 @@ export function ReviewQueue({ projectId, initial, units, canDecide }: { projectI
       )}
     </div>
   );
+}
+
+function submittedCount(items: QueueItem[], systemId: string): number {
+  return items.filter((i) => i.systemId === systemId && i.status === "submitted").length;
 }
 
 function ItemDetail({ item, projectId, units, canDecide, onDone }: { item: QueueItem; projectId: string; units: UnitSystem; canDecide: boolean; onDone: (d: "approve" | "return") => void }) {
