@@ -32,7 +32,7 @@ test("the commissioning agent's review queue lists the submitted traverses with 
   // The expanded uncertainty, always with its coverage factor.
   await expect(trunk).toContainText(/± \d+\.\d % \(k = 2, about 95 %\)/);
   await trunk.getByRole("button", { name: /Review/ }).click();
-  await expect(page.getByText("Standard flow")).toBeVisible();
+  await expect(page.getByText("Standard flow", { exact: true })).toBeVisible();
   // The demo's sample of the approved reading-room branches, with the agent's readings.
   const sample = page.getByRole("region", { name: /AHU-1/ });
   await expect(sample).toContainText("seed 2026112401");
