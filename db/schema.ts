@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import {
   type AnyPgColumn,
+  bigint,
   bigserial,
   boolean,
   check,
@@ -115,11 +116,25 @@ export const projects = pgTable(
     outsideAirToleranceMinusPct: doublePrecision("outside_air_tolerance_minus_pct").notNull().default(0),
     outsideAirTolerancePlusPct: doublePrecision("outside_air_tolerance_plus_pct").notNull().default(10),
     continuityTolerancePct: doublePrecision("continuity_tolerance_pct").notNull().default(10),
+    /**
+     * Verification sample: the share of a submitted system's outlets, terminal units and sections the
+     * commissioning agent re-reads (10 %, common practice), never fewer than `sampleMinCount`; a reading
+     * agrees when within ±`sampleTolerancePct` of the technician's (±10 %, common practice); more than
+     * `sampleAllowedFailures` disagreements recommend returning the whole system.
+     */
+    samplePct: doublePrecision("sample_pct").notNull().default(10),
+    sampleMinCount: integer("sample_min_count").notNull().default(3),
+    sampleTolerancePct: doublePrecision("sample_tolerance_pct").notNull().default(10),
+    sampleAllowedFailures: integer("sample_allowed_failures").notNull().default(0),
     createdAt: createdAt(),
   },
   (t) => [
     check("projects_density_range", sql`${t.standardDensityKgM3} between 0.5 and 2`),
     check("projects_altitude_range", sql`${t.altitudeM} between -500 and 5000`),
+    check(
+      "projects_sample_range",
+      sql`${t.samplePct} > 0 and ${t.samplePct} <= 100 and ${t.sampleMinCount} between 1 and 500 and ${t.sampleTolerancePct} > 0 and ${t.sampleTolerancePct} <= 50 and ${t.sampleAllowedFailures} between 0 and 500`,
+    ),
     check(
       "projects_tolerance_range",
       sql`least(${t.fanToleranceMinusPct}, ${t.fanTolerancePlusPct}, ${t.sectionToleranceMinusPct}, ${t.sectionTolerancePlusPct}, ${t.outletToleranceMinusPct}, ${t.outletTolerancePlusPct}, ${t.terminalUnitToleranceMinusPct}, ${t.terminalUnitTolerancePlusPct}, ${t.outsideAirToleranceMinusPct}, ${t.outsideAirTolerancePlusPct}, ${t.continuityTolerancePct}) >= 0 and greatest(${t.fanToleranceMinusPct}, ${t.fanTolerancePlusPct}, ${t.sectionToleranceMinusPct}, ${t.sectionTolerancePlusPct}, ${t.outletToleranceMinusPct}, ${t.outletTolerancePlusPct}, ${t.terminalUnitToleranceMinusPct}, ${t.terminalUnitTolerancePlusPct}, ${t.outsideAirToleranceMinusPct}, ${t.outsideAirTolerancePlusPct}, ${t.continuityTolerancePct}) <= 100`,
@@ -473,24 +488,110 @@ export const terminalReadings = pgTable(
   (t) => [index("terminal_readings_terminal_idx").on(t.terminalId, t.takenAt), index("terminal_readings_set_idx").on(t.setId)],
 );
 
-/** A commissioning agent's decision on one version of a traverse. */
+/**
+ * A commissioning agent's decision on one version of a traverse or of a system's terminal set: exactly
+ * one of the two is named, with the version the decision applies to. `systemWide` marks a decision
+ * taken for a whole system at once (every submitted item of it, in one transaction).
+ */
 export const reviews = pgTable(
   "reviews",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    traverseId: uuid("traverse_id")
-      .notNull()
-      .references(() => traverses.id, { onDelete: "cascade" }),
+    traverseId: uuid("traverse_id").references(() => traverses.id, { onDelete: "cascade" }),
+    terminalSetId: uuid("terminal_set_id").references(() => terminalSets.id, { onDelete: "cascade" }),
     reviewerId: uuid("reviewer_id")
       .notNull()
       .references(() => users.id),
     decision: reviewDecision("decision").notNull(),
     reason: text("reason").notNull().default(""),
     witnessed: boolean("witnessed").notNull().default(false),
+    /** The version of the traverse (or, for a terminal set, of the set) the decision applies to. */
     traverseVersion: integer("traverse_version").notNull(),
+    systemWide: boolean("system_wide").notNull().default(false),
     createdAt: createdAt(),
   },
-  (t) => [index("reviews_traverse_idx").on(t.traverseId)],
+  (t) => [
+    index("reviews_traverse_idx").on(t.traverseId),
+    index("reviews_terminal_set_idx").on(t.terminalSetId),
+    check("reviews_one_item", sql`(${t.traverseId} is null) <> (${t.terminalSetId} is null)`),
+  ],
+);
+
+export const sampleItemKind = pgEnum("sample_item_kind", ["outlet", "terminal_unit", "section"]);
+export type SampleItemKind = (typeof sampleItemKind.enumValues)[number];
+export const sampleStatus = pgEnum("sample_status", ["open", "closed"]);
+
+/**
+ * A verification sample of one submitted system, drawn by a commissioning agent: the seed and the rule
+ * it was drawn with are kept, so the same draw can be shown again; the outcome is kept up to date as
+ * the agent's readings come in.
+ */
+export const verificationSamples = pgTable(
+  "verification_samples",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    systemId: uuid("system_id")
+      .notNull()
+      .references(() => airSystems.id, { onDelete: "cascade" }),
+    /** 32-bit unsigned seed of the xoroshiro128+ generator (pure-rand) the draw used. */
+    seed: bigint("seed", { mode: "number" }).notNull(),
+    samplePct: doublePrecision("sample_pct").notNull(),
+    minCount: integer("min_count").notNull(),
+    tolerancePct: doublePrecision("tolerance_pct").notNull(),
+    allowedFailures: integer("allowed_failures").notNull(),
+    /** How many candidates there were, and the ids in the order they were considered (the population). */
+    population: jsonb("population").$type<{ kind: SampleItemKind; id: string; tag: string }[]>().notNull(),
+    status: sampleStatus("status").notNull().default("open"),
+    agreedCount: integer("agreed_count").notNull().default(0),
+    disagreedCount: integer("disagreed_count").notNull().default(0),
+    /** True once more items disagree than the project allows: the app recommends returning the system. */
+    recommendReturn: boolean("recommend_return").notNull().default(false),
+    drawnBy: uuid("drawn_by").references(() => users.id, { onDelete: "set null" }),
+    drawnAt: timestamp("drawn_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("verification_samples_system_idx").on(t.systemId, t.drawnAt)],
+);
+
+/**
+ * One sampled outlet, terminal unit or section, with the technician's airflow it is compared with (the
+ * latest reading or traverse at the draw) and the agent's own reading once entered.
+ */
+export const verificationSampleItems = pgTable(
+  "verification_sample_items",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    sampleId: uuid("sample_id")
+      .notNull()
+      .references(() => verificationSamples.id, { onDelete: "cascade" }),
+    position: integer("position").notNull(),
+    kind: sampleItemKind("kind").notNull(),
+    terminalId: uuid("terminal_id").references(() => terminals.id, { onDelete: "cascade" }),
+    sectionId: uuid("section_id").references(() => ductSections.id, { onDelete: "cascade" }),
+    tag: text("tag").notNull(),
+    /** The technician's reading compared with: a terminal reading or a traverse, its standard airflow and conditions. */
+    technicianReadingId: uuid("technician_reading_id").references(() => terminalReadings.id, { onDelete: "set null" }),
+    technicianTraverseId: uuid("technician_traverse_id").references(() => traverses.id, { onDelete: "set null" }),
+    technicianFlowM3S: doublePrecision("technician_flow_m3_s"),
+    technicianConditionsId: uuid("technician_conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
+    /** The agent's reading: how, the inputs, the standard airflow it gives, the conditions it was read under. */
+    agentMethod: text("agent_method"),
+    agentDetail: jsonb("agent_detail").$type<Record<string, unknown>>(),
+    agentFlowM3S: doublePrecision("agent_flow_m3_s"),
+    agentConditionsId: uuid("agent_conditions_id").references(() => operatingConditions.id, { onDelete: "set null" }),
+    conditionsDiffer: jsonb("conditions_differ").$type<string[]>(),
+    differencePct: doublePrecision("difference_pct"),
+    agrees: boolean("agrees"),
+    witnessed: boolean("witnessed").notNull().default(false),
+    readBy: uuid("read_by").references(() => users.id, { onDelete: "set null" }),
+    readAt: timestamp("read_at", { withTimezone: true }),
+  },
+  (t) => [
+    uniqueIndex("verification_sample_items_position_idx").on(t.sampleId, t.position),
+    check("verification_sample_items_one_item", sql`(${t.terminalId} is null) <> (${t.sectionId} is null)`),
+  ],
 );
 
 /**
@@ -548,6 +649,8 @@ export type Instrument = typeof instruments.$inferSelect;
 export type OperatingConditions = typeof operatingConditions.$inferSelect;
 export type TerminalSet = typeof terminalSets.$inferSelect;
 export type TerminalReading = typeof terminalReadings.$inferSelect;
+export type VerificationSample = typeof verificationSamples.$inferSelect;
+export type VerificationSampleItem = typeof verificationSampleItems.$inferSelect;
 
 // ── E-mail, notifications, invitations, the TAB supervisor, uploads and issued reports ──────────────
 

@@ -7,12 +7,12 @@ const CLINIC = "Marlow Quay Clinic — fit-out";
 // Each role's project tabs: its own work, and not the others'.
 const ROLES = [
   { email: "tech@example.test", role: "Technician", tabs: ["Overview", "Field work", "Reports", "Members"] },
-  { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports", "Members"] },
-  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members"] },
+  { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports", "Members", "Activity"] },
+  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"] },
   { email: "owner@example.test", role: "Owner", tabs: ["Overview", "Reports", "Members"] },
-  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members"] },
+  { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"] },
 ];
-const ALL_TABS = ["Overview", "Set-up", "Field work", "Review", "Design vs measured", "Reports", "Members"];
+const ALL_TABS = ["Overview", "Set-up", "Field work", "Review", "Design vs measured", "Reports", "Members", "Activity"];
 
 for (const account of ROLES) {
   test(`${account.role} signs in and sees their own navigation`, async ({ page }) => {

@@ -26,12 +26,18 @@ test("the technician's field work shows the safety cautions, suggested layouts a
 
 test("the commissioning agent's review queue lists the submitted traverses with their results", async ({ page }) => {
   await openLibraryTab(page, "cx@example.test", "Review");
-  await expect(page.getByRole("heading", { name: "Awaiting your review (2)" })).toBeVisible();
-  const trunk = page.getByRole("region").filter({ hasText: "AHU-1 / S1 ·" });
-  await expect(trunk).toContainText("Standard flow");
+  await expect(page.getByRole("heading", { name: "Review queue" })).toBeVisible();
+  await expect(page.getByRole("list", { name: "Counts per status" })).toContainText("Awaiting review2");
+  const trunk = page.getByRole("row", { name: /AHU-1 \/ S1 Traverse/ });
   await expect(trunk).toContainText("Good plane");
   // The expanded uncertainty, always with its coverage factor.
-  await expect(trunk).toContainText(/± \d+\.\d % \(k = 2, about 95 %\) on actual, standard and mass flow/);
+  await expect(trunk).toContainText(/± \d+\.\d % \(k = 2, about 95 %\)/);
+  await trunk.getByRole("button", { name: /Review/ }).click();
+  await expect(page.getByText("Standard flow", { exact: true })).toBeVisible();
+  // The demo's sample of the approved reading-room branches, with the agent's readings.
+  const sample = page.getByRole("region", { name: /AHU-1/ });
+  await expect(sample).toContainText("seed 2026112401");
+  await expect(sample).toContainText("All 2 sampled items read: 2 agree");
 });
 
 test("the engineer sees design against measured, continuity by mass and balancing aids", async ({ page }) => {

@@ -16,6 +16,7 @@ const PROJECT_NAV: { path: string; label: string; action: Action }[] = [
   { path: "/systems", label: "Design vs measured", action: "design.edit" },
   { path: "/reports", label: "Reports", action: "report.download" },
   { path: "/members", label: "Members", action: "members.view" },
+  { path: "/activity", label: "Activity", action: "audit.view" },
 ];
 
 /** The project tabs a role sees: its own work. Hiding a link is cosmetic; every route checks again. */

@@ -21,6 +21,7 @@ export function projectFields(): FieldSpec[] {
   const site = "Site";
   const air = "Units and standard air";
   const tol = "Acceptance bands, % of design (contract documents govern)";
+  const sample = "Verification sample (commissioning agent)";
   return [
     { name: "name", label: "Project name", type: "text", required: true, group: site, maxLength: 160 },
     { name: "siteName", label: "Site", type: "text", required: true, group: site, maxLength: 160 },
@@ -50,6 +51,10 @@ export function projectFields(): FieldSpec[] {
       { name: `${key}TolerancePlusPct`, label: `${label}: above design (+%)`, type: "number", group: tol },
     ]),
     { name: "continuityTolerancePct", label: "Continuity at junctions (±% by mass)", type: "number", group: tol },
+    { name: "samplePct", label: "Share of each kind re-read (%)", type: "number", group: sample, hint: "Outlets, terminal units and sections of a submitted system; 10 % is common practice." },
+    { name: "sampleMinCount", label: "Fewest items in a sample", type: "number", group: sample },
+    { name: "sampleTolerancePct", label: "Agreement with the technician's reading (±%)", type: "number", group: sample, hint: "±10 % is common practice." },
+    { name: "sampleAllowedFailures", label: "Disagreements allowed before the system is returned", type: "number", group: sample },
   ];
 }
 
@@ -62,6 +67,10 @@ export function projectInitial(project: Project | null, units: DesignUnits, unit
     altitudeM: inputValue(units.altitude, project?.altitudeM ?? 0),
     standardDensityKgM3: project ? inputValue(units.density, project.standardDensityKgM3) : unitSystem === "IP" ? inputValue(units.density, units.density.toSi(0.075)) : inputValue(units.density, 1.204),
     continuityTolerancePct: String(project?.continuityTolerancePct ?? 10),
+    samplePct: String(project?.samplePct ?? 10),
+    sampleMinCount: String(project?.sampleMinCount ?? 3),
+    sampleTolerancePct: String(project?.sampleTolerancePct ?? 10),
+    sampleAllowedFailures: String(project?.sampleAllowedFailures ?? 0),
   };
   // Defaults are common practice: ±5 % fans, ±10 % sections, outlets and terminal units, −0/+10 % outside air.
   const defaults = { fan: [5, 5], section: [10, 10], outlet: [10, 10], terminalUnit: [10, 10], outsideAir: [0, 10] } as const;

@@ -20,6 +20,9 @@ import { plausibilityFlags } from "@/lib/traverse/plausibility";
 import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/result-types";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
+import { SubmitPanel } from "@/components/review/submit-panel";
+import { reviewApi } from "@/lib/api-client/review";
+import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
 import { AirEditor } from "./air-editor";
 import { ChartBoundary } from "./chart-boundary";
 import { KitEditor } from "./kit-editor";
@@ -165,6 +168,24 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           what="the readings"
           className="sticky top-0 z-10"
         />
+      )}
+      {canRecord && (
+        <SubmitPanel
+          what={`the traverse of ${server.sectionTag}`}
+          // Status and decisions change only by submission and review, which reload the page: the page's value is current.
+          status={initial.status}
+          problems={traverseSubmissionProblemsOf(server)}
+          pendingOnDevice={draft.syncState !== "saved"}
+          online={draft.online}
+          lastReview={initial.lastReview}
+          onSubmit={() => reviewApi.submitTraverse(projectId, initial.id)}
+        />
+      )}
+      {!canRecord && initial.lastReview && (
+        <p role="note" className="rounded-card border border-line-strong bg-paper-sunk p-3">
+          {initial.lastReview.decision === "approved" ? "Approved" : "Returned"} by {initial.lastReview.reviewerName ?? "the commissioning agent"}
+          {initial.lastReview.comment ? `: “${initial.lastReview.comment}”` : "."}
+        </p>
       )}
       {!editable && (
         <p role="note" className="rounded-card border border-line-strong bg-paper-sunk p-3">

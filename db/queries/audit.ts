@@ -1,7 +1,10 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import { getDb } from "../client";
+import { getDb, type Database } from "../client";
 import { auditLog, users } from "../schema";
+
+/** The database or a transaction of it: an entry written in the caller's transaction is rolled back with it. */
+type DbOrTx = Database | Parameters<Parameters<Database["transaction"]>[0]>[0];
 
 export type AuditEntry = Omit<typeof auditLog.$inferInsert, "id" | "at">;
 
@@ -10,8 +13,8 @@ export type AuditEntry = Omit<typeof auditLog.$inferInsert, "id" | "at">;
  * kept as it is now: pass `actorEmail`, or give `userId` and it is copied from the user row within
  * the same INSERT (no extra round trip).
  */
-export async function recordAudit(entry: AuditEntry): Promise<void> {
-  const db = await getDb();
+export async function recordAudit(entry: AuditEntry, tx?: DbOrTx): Promise<void> {
+  const db = tx ?? (await getDb());
   const actorEmail =
     entry.actorEmail ?? (entry.userId ? sql`(select ${users.email} from ${users} where ${users.id} = ${entry.userId})` : null);
   await db.insert(auditLog).values({ ...entry, actorEmail });

@@ -6,6 +6,7 @@ import { CLINIC_ALTITUDE_M, CLINIC_STANDARD_DENSITY_KG_M3, seedClinic } from "./
 import { seedFieldKit } from "./instruments";
 import { seedLibrary } from "./library";
 import { seedDemoReport } from "./report";
+import { seedReviewStory } from "./review";
 import { seedTerminalReadings } from "./terminal-readings";
 
 /**
@@ -83,6 +84,7 @@ export async function seedDemo(db: Database, options: { withReport?: boolean } =
     await seedClinic(tx, clinic!.id);
     await seedFieldKit(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
     await seedTerminalReadings(tx, { projectId: library!.id, technicianId: userId("tech@example.test") });
+    await seedReviewStory(tx, { projectId: library!.id, technicianId: userId("tech@example.test"), reviewerId: userId("cx@example.test") });
 
     await tx.insert(s.auditLog).values({
       userId: userId("admin@example.test"),

@@ -150,6 +150,7 @@ async function approveExhaustSystem(projectId: string, technicianId: string, rev
         reason: "Witnessed the second diameter; three points re-read within 3 %.",
         witnessed: true,
         traverseVersion: traverse!.version,
+        createdAt: new Date(takenAt.getTime() + 3 * 60 * 60_000),
       });
     }
 
@@ -207,10 +208,21 @@ async function approveExhaustSystem(projectId: string, technicianId: string, rev
       });
     }
     if (rows.length > 0) await tx.insert(s.terminalReadings).values(rows);
+    const version = set.version + rows.length;
     await tx
       .update(s.terminalSets)
-      .set({ status: "approved", version: set.version + rows.length, submittedBy: technicianId, submittedAt: new Date(START + 140 * 60_000), updatedAt: new Date(START + 180 * 60_000) })
+      .set({ status: "approved", version, submittedBy: technicianId, submittedAt: new Date(START + 140 * 60_000), updatedAt: new Date(START + 180 * 60_000) })
       .where(eq(s.terminalSets.id, set.id));
+    // The commissioning agent's decision on the set, as the review cycle records it.
+    await tx.insert(s.reviews).values({
+      terminalSetId: set.id,
+      reviewerId,
+      decision: "approved",
+      reason: "Hood readings of all six grilles checked against the balancing sheet; two re-read within 5 %.",
+      witnessed: false,
+      traverseVersion: version,
+      createdAt: new Date(START + 180 * 60_000),
+    });
   });
 }
 

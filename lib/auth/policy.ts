@@ -23,6 +23,7 @@ export const ACTIONS = [
   "members.invite",
   "supervisor.sign",
   "photo.add",
+  "audit.view",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -54,6 +55,8 @@ export const POLICY: Record<Action, readonly MemberRole[]> = {
   // Only the designated supervisor signs; the handler also checks it is them.
   "supervisor.sign": ["technician"],
   "photo.add": ["technician"],
+  // The project's audit trail: who submitted, decided, changed what. Those who answer for the results read it.
+  "audit.view": ["commissioning_agent", "engineer"],
 };
 
 /** Site-wide administrators set projects up (settings, design, people) and may look at everything, but take no readings and sign nothing. */
@@ -67,6 +70,7 @@ const ADMIN_ACTIONS: ReadonlySet<Action> = new Set([
   "members.manage",
   "members.view",
   "members.invite",
+  "audit.view",
 ]);
 
 export interface Actor {

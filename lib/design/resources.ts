@@ -71,6 +71,10 @@ export const projectResourceSchema = z.object({
   outsideAirToleranceMinusPct: num,
   outsideAirTolerancePlusPct: num,
   continuityTolerancePct: num,
+  samplePct: num.describe("verification sample: share of each kind drawn, %"),
+  sampleMinCount: num.describe("verification sample: fewest items drawn"),
+  sampleTolerancePct: num.describe("verification sample: agreement tolerance, ± %"),
+  sampleAllowedFailures: num.describe("verification sample: disagreements allowed before returning the system is recommended"),
   createdAt: when,
 });
 

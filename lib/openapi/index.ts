@@ -5,6 +5,7 @@ import { fieldOperations } from "./operations/field";
 import { fileOperations } from "./operations/files";
 import { peopleOperations } from "./operations/people";
 import { terminalOperations } from "./operations/terminals";
+import { reviewOperations } from "./operations/review";
 import { traverseOperations } from "./operations/traverses";
 
 /** Every documented operation; each area adds its own list here. */
@@ -16,6 +17,7 @@ export const OPERATIONS: readonly Operation[] = [
   ...terminalOperations,
   ...peopleOperations,
   ...fileOperations,
+  ...reviewOperations,
 ];
 
 export function openApiDocument() {

@@ -5,13 +5,14 @@
  * the report approvals. A draft takes the data as they stand; an issued report takes approved data
  * only, and lists everything else as "not approved — excluded".
  *
- * The verification sample and the accepted deviations come through `loadVerificationSample` and
- * `loadAcceptedDeviations` below, so their tables can be wired in without touching the rest.
+ * The verification samples and the accepted deviations come through `loadVerificationSample` and
+ * `loadAcceptedDeviations` below.
  */
 import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { getProjectDesign, listTraversesForProject, type StoredTraverse } from "@/db/queries/airflow";
+import { getSampleInProject, listSamples } from "@/db/queries/samples";
 import { listConditionsByIds, listTerminalReadings, listTerminalSets } from "@/db/queries/terminal-readings";
 import { instruments, photos, projects, reviews, users, type Instrument } from "@/db/schema";
 import { formatTolerance, toleranceFor } from "@/lib/airflow/tolerance";
@@ -63,12 +64,50 @@ export interface LoadReportOptions {
 }
 
 /**
- * The verification sample: the commissioning agent's re-readings of part of the reported data.
- * Returns "not recorded" until the samples table exists; wire the review work's sample here.
+ * The commissioning agent's verification samples: the newest sample of each system, its items the agent
+ * read (the technician's standard airflow against the agent's), and the outcome against the project's
+ * rule. Items read under operating conditions that differ from the technician's are not judged (as on the
+ * Review screen) and are named in the comment instead.
  */
 export async function loadVerificationSample({ projectId }: { projectId: string }): Promise<ReportVerification> {
-  void projectId;
-  return { recorded: false };
+  const newestPerSystem = new Map<string, Awaited<ReturnType<typeof listSamples>>[number]>();
+  for (const row of await listSamples({ projectId })) if (!newestPerSystem.has(row.sample.systemId)) newestPerSystem.set(row.sample.systemId, row);
+  if (newestPerSystem.size === 0) return { recorded: false };
+  const samples = (await Promise.all([...newestPerSystem.values()].map((row) => getSampleInProject({ projectId, sampleId: row.sample.id })))).filter((x) => x !== null);
+  const items: Extract<ReportVerification, { recorded: true }>["items"] = [];
+  const notes: string[] = [];
+  let drawn = 0;
+  let population = 0;
+  let failed = false;
+  for (const { sample, systemTag, drawnByName, items: sampleItems } of samples) {
+    drawn += sampleItems.length;
+    population += sample.population.length;
+    if (sample.recommendReturn || sample.disagreedCount > sample.allowedFailures) failed = true;
+    const read = sampleItems.filter((i) => i.agentFlowM3S !== null && i.technicianFlowM3S !== null);
+    for (const i of read) {
+      if (i.agrees === null) {
+        notes.push(`${systemTag} ${i.tag} was read under other operating conditions (${(i.conditionsDiffer ?? []).join("; ") || "they differ"}) and is not judged.`);
+        continue;
+      }
+      items.push({ item: `${systemTag} · ${i.tag}`, reportedM3S: i.technicianFlowM3S!, verifiedM3S: i.agentFlowM3S!, differencePct: i.differencePct ?? 0, pass: i.agrees });
+    }
+    const witnessed = sampleItems.filter((i) => i.witnessed).length;
+    notes.unshift(
+      `${systemTag}: ${sampleItems.length} of ${sample.population.length} items drawn ${sample.drawnAt.toISOString().slice(0, 10)}${drawnByName ? ` by ${drawnByName}` : ""} (seed ${sample.seed}, ${sample.samplePct} %, at least ${sample.minCount}); ${sample.agreedCount} agreed, ${sample.disagreedCount} disagreed (${sample.allowedFailures} allowed)${witnessed > 0 ? `, ${witnessed} witnessed` : ""}; ${sampleItems.length - read.length} not read yet.`,
+    );
+  }
+  const newest = samples.reduce((a, b) => (a.sample.drawnAt > b.sample.drawnAt ? a : b));
+  const tolerances = [...new Set(samples.map((x) => `±${x.sample.tolerancePct} %`))];
+  return {
+    recorded: true,
+    by: [...new Set(samples.map((x) => x.drawnByName).filter((n): n is string => !!n))].join(", ") || "the commissioning agent",
+    at: newest.sample.drawnAt.toISOString(),
+    sampleSize: `${drawn} of ${population} items (${population > 0 ? Math.round((100 * drawn) / population) : 0} %)`,
+    result: failed ? "failed" : "passed",
+    tolerance: tolerances.join(", "),
+    items,
+    comment: notes.join(" "),
+  };
 }
 
 /**

@@ -2,6 +2,7 @@ import "server-only";
 import { recordAudit } from "@/db/queries/audit";
 import { getConditions, type ConditionsRow } from "@/db/queries/conditions";
 import { getInstrument, listInstruments } from "@/db/queries/instruments";
+import { submittedSetOfSystem } from "./review";
 import { getTerminalReading, getTraverseWithSection, listTerminalReadings, recordTerminalReading, type NewTerminalReading } from "@/db/queries/terminal-readings";
 import type { SessionUser } from "@/db/queries/users";
 import type { AirSystem, DuctSection, Instrument, InstrumentKind, Project, Terminal, TerminalSetpoint } from "@/db/schema";
@@ -59,6 +60,13 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
     const prior = await findExisting(body.id, user, project, place);
     if (prior) return prior;
   }
+  // A submitted set is locked while the commissioning agent reviews it; after a decision new readings open the next set.
+  const locked = await submittedSetOfSystem(system.id);
+  if (locked)
+    return {
+      status: 409,
+      message: `The terminal readings of ${system.tag} (set ${locked.revision}) are submitted for review and locked; nothing was recorded. Once the commissioning agent approves or returns them, new readings can be taken (after approval they open set ${locked.revision + 1}).`,
+    };
 
   const allowed = setpointsFor(designOf(terminal));
   const setpoint: TerminalSetpoint | undefined = body.setpoint ?? (unit ? undefined : "design");

@@ -24,6 +24,7 @@ import { instrumentName, KIND_INFO } from "@/lib/instruments/kinds";
 import { calibrationProblems, instrumentUsability } from "@/lib/instruments/usability";
 import { camelKey, camelKeys, engineSourceOf, gridOfRows, layoutCalcInput, reduceTraverseSource, type Grid, type PointRef } from "@/lib/traverse/engine-input";
 import { READING_LIMITS, type ReadingsSave, type TraverseCreate, type TraversePatch } from "@/lib/validation/traverses";
+import { listReviewsOf } from "@/db/queries/reviews";
 import { conditionsJson } from "./field-json";
 
 /** What a traverse operation answers: a status and a JSON body. */
@@ -205,11 +206,13 @@ export async function traverseResource(found: TraverseInProject, project: Projec
   const readingRows = rows ?? (await listReadingsOfTraverse({ traverseId: t.id }));
   const { readings, unreadable } = gridOfRows(t.lines, t.pointsPerLine, readingRows);
   const source = engineSourceOf(t, section, project);
-  const [instruments, conditions, revisions] = await Promise.all([
+  const [instruments, conditions, revisions, decisions] = await Promise.all([
     instrumentsById([t.instrumentId, t.probeInstrumentId, t.airInstrumentId, t.barometerInstrumentId]),
     t.conditionsId ? getConditions({ id: t.conditionsId }) : Promise.resolve(null),
     options.history ? listRevisionsOfSection({ sectionId: section.id }) : Promise.resolve(null),
+    listReviewsOf({ traverseIds: [t.id] }),
   ]);
+  const last = decisions[0];
   const layout = runCalcCommand("layout", layoutCalcInput(source));
   const reduction = reduceTraverseSource(source, readings, unreadable);
   const onDate = t.takenAt ?? new Date();
@@ -291,6 +294,9 @@ export async function traverseResource(found: TraverseInProject, project: Projec
     result,
     resultError: reduction.ok ? null : { message: reduction.message, ...(reduction.fields ? { fields: reduction.fields } : {}) },
     ...(revisions ? { revisions } : {}),
+    submittedAt: t.submittedAt,
+    /** The commissioning agent's latest decision on this traverse (a return's comment is what to correct). */
+    lastReview: last ? { decision: last.decision, comment: last.reason, reviewerName: last.reviewerName, witnessed: last.witnessed, at: last.createdAt, version: last.traverseVersion } : null,
   };
 }
 export type TraverseResource = Awaited<ReturnType<typeof traverseResource>>;

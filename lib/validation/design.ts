@@ -87,6 +87,14 @@ const pct = (label: string) =>
     .gte(0, { error: (iss) => `${label} must be 0 to 100 %; ${String(iss.input)} % was entered.` })
     .lte(100, { error: (iss) => `${label} must be 0 to 100 %; ${String(iss.input)} % was entered.` });
 
+const bounded = (label: string, min: number, max: number, opts: { integer?: boolean; above?: boolean } = {}) => {
+  const what = `${label} must be ${opts.integer ? "a whole number" : "a number"} ${opts.above ? `above ${min}` : `from ${min}`} to ${max}`;
+  let base = z.number({ error: `${what}.` });
+  base = opts.above ? base.gt(min, { error: (iss) => `${what}; ${String(iss.input)} was entered.` }) : base.gte(min, { error: (iss) => `${what}; ${String(iss.input)} was entered.` });
+  base = base.lte(max, { error: (iss) => `${what}; ${String(iss.input)} was entered.` });
+  return opts.integer ? base.int({ error: (iss) => `${what}; ${String(iss.input)} was entered.` }) : base;
+};
+
 type Size = { shape?: "round" | "rectangular" | null; diameterMm?: number | null; widthMm?: number | null; heightMm?: number | null };
 
 /** Round ducts have a diameter, rectangular ones a width and a height; nothing else. */
@@ -124,6 +132,11 @@ export function designSchemas(units: DesignUnits = API_UNITS) {
     outsideAirToleranceMinusPct: pct("Outside air tolerance below design"),
     outsideAirTolerancePlusPct: pct("Outside air tolerance above design"),
     continuityTolerancePct: pct("Continuity tolerance"),
+    // The commissioning agent's verification sample (defaults 10 %, at least 3, ±10 %, none allowed to disagree: common practice).
+    samplePct: bounded("Verification sample share (%)", 0, 100, { above: true }),
+    sampleMinCount: bounded("Verification sample minimum", 1, 500, { integer: true }),
+    sampleTolerancePct: bounded("Verification agreement tolerance (±%)", 0, 50, { above: true }),
+    sampleAllowedFailures: bounded("Disagreements allowed in a sample", 0, 500, { integer: true }),
   };
   const projectFields = {
     name: text("Project name", 160, true),

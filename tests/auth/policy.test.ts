@@ -30,6 +30,18 @@ describe("role policy", () => {
     expect(can(admin, null, "conditions.record")).toBe(false);
   });
 
+  it("keeps submission with technicians, decisions with commissioning agents, and the audit trail with those who answer for the results", () => {
+    expect(can(member, "technician", "traverse.submit")).toBe(true);
+    for (const role of ["commissioning_agent", "engineer", "owner"] as const) expect(can(member, role, "traverse.submit")).toBe(false);
+    for (const role of ["technician", "engineer", "owner"] as const) expect(can(member, role, "traverse.review")).toBe(false);
+    expect(can(admin, null, "traverse.submit")).toBe(false);
+    expect(can(admin, null, "traverse.review")).toBe(false);
+    expect(can(member, "commissioning_agent", "audit.view")).toBe(true);
+    expect(can(member, "engineer", "audit.view")).toBe(true);
+    expect(can(admin, null, "audit.view")).toBe(true);
+    for (const role of ["technician", "owner"] as const) expect(can(member, role, "audit.view")).toBe(false);
+  });
+
   it("lets technicians on any project and site administrators keep the instrument register", () => {
     expect(canKeepInstrumentRegister(member, ["owner", "technician"])).toBe(true);
     expect(canKeepInstrumentRegister(member, ["engineer", "commissioning_agent", "owner"])).toBe(false);
@@ -58,10 +70,10 @@ describe("role policy", () => {
   it("shows each role its own work in the project navigation", () => {
     const labels = (role: Parameters<typeof projectNav>[2], actor = member) => projectNav("p", actor, role).map((i) => i.label);
     expect(labels("technician")).toEqual(["Overview", "Field work", "Reports", "Members"]);
-    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports", "Members"]);
-    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
+    expect(labels("commissioning_agent")).toEqual(["Overview", "Review", "Reports", "Members", "Activity"]);
+    expect(labels("engineer")).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"]);
     expect(labels("owner")).toEqual(["Overview", "Reports", "Members"]);
-    expect(labels(null, admin)).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members"]);
+    expect(labels(null, admin)).toEqual(["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"]);
   });
 
   it("lets every member see who is on the project, and the engineer and site administrators manage people", () => {

@@ -70,7 +70,9 @@ describe("the demo's issued report", () => {
     expect(all).toContain("Traverse AHU-1 / S1.1");
     expect(all).not.toMatch(/Traverse AHU-1 \/ S1 /);
     expect(all).not.toContain("Traverse AHU-1 / S1.3");
-    expect(all).toContain("No verification sample recorded.");
+    // The demo's verification sample of the approved reading-room branches (db/seed/review.ts).
+    expect(all).toMatch(/Verification sample Verified by Ines Karlsson, 2026-11-24 Sample 2 of 2 items \(100 %\) Tolerance ±10 % Result Passed/);
+    expect(all).toContain("AHU-1 · S1.1 1,412 1,456 3.1 % Agrees");
     expect(all).toContain("No accepted deviations.");
     expect(all).toContain("air side only");
     expect(all).toContain("Guild of Air Balancing Supervisors");

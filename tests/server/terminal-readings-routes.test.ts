@@ -235,7 +235,7 @@ describe("POST …/terminals/{terminalId}/readings", () => {
     expect(history.body.latest.design.final.damperMarked).toBe(true);
   });
 
-  it("keeps readings in the system's open terminal set, opening the next revision when the set was submitted", async () => {
+  it("keeps readings in the system's open terminal set, refuses them while it is submitted, and opens the next revision once it is approved", async () => {
     as("tech@example.test");
     const db = await getDb();
     const [open] = await db.select().from(s.terminalSets).where(and(eq(s.terminalSets.systemId, system["EF-1"]!), eq(s.terminalSets.status, "draft")));
@@ -245,15 +245,20 @@ describe("POST …/terminals/{terminalId}/readings", () => {
     const [after] = await db.select().from(s.terminalSets).where(eq(s.terminalSets.id, open!.id));
     expect(after!.version).toBe(open!.version + 1);
 
-    // Submitted (as the review cycle will do): the next reading opens revision 2 in draft.
+    // Submitted: the system's readings are locked while the commissioning agent reviews them.
     await db.update(s.terminalSets).set({ status: "submitted" }).where(eq(s.terminalSets.id, open!.id));
+    const locked = await post("EG-212", hoodBody({ hoodFlowM3S: 0.21, conditionsId: efConditions }));
+    expect(locked.status).toBe(409);
+    expect(locked.body.error.message).toMatch(/submitted for review and locked/);
+    // Approved: the next reading opens revision 2 in draft.
+    await db.update(s.terminalSets).set({ status: "approved" }).where(eq(s.terminalSets.id, open!.id));
     const next = await post("EG-212", hoodBody({ hoodFlowM3S: 0.21, conditionsId: efConditions }));
     expect(next.status).toBe(201);
     expect(next.body.reading.setId).not.toBe(open!.id);
     const [created] = await db.select().from(s.terminalSets).where(eq(s.terminalSets.id, next.body.reading.setId));
     expect(created).toMatchObject({ status: "draft", revision: 2, systemId: system["EF-1"] });
     const listed = await listAll(`?systemId=${system["EF-1"]}`);
-    expect(listed.body.sets.map((x: { revision: number; status: string }) => `${x.revision}:${x.status}`)).toEqual(["2:draft", "1:submitted"]);
+    expect(listed.body.sets.map((x: { revision: number; status: string }) => `${x.revision}:${x.status}`)).toEqual(["2:draft", "1:approved"]);
   });
 
   it("stores a retried create once: the same client id answers 200 with the stored reading; on another terminal, 409", async () => {

@@ -20,6 +20,9 @@ import { formatFor, terminalReadingJson } from "@/lib/server/terminal-reading-js
 import { instrumentMap } from "@/lib/server/terminal-readings";
 import { formatQuantity, unitSystemFor } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
+import { TerminalSetSubmit, type TerminalSetSubmitProps } from "@/components/review/terminal-set-submit";
+import { listReviewsOf } from "@/db/queries/reviews";
+import { terminalSetSubmissionProblems } from "@/lib/server/review";
 
 export const metadata: Metadata = { title: "Terminals" };
 
@@ -119,6 +122,27 @@ export default async function TerminalsPage({ params }: { params: Promise<{ proj
     ];
   });
 
+  // Each system's current terminal set, with what stands in the way of submitting it and its last decision.
+  const submissions: TerminalSetSubmitProps[] = [];
+  if (canRecord)
+    for (const system of design.systems) {
+      const set = sets.find((x) => x.systemId === system.id);
+      if (!set) continue;
+      const [problems, decisions] = await Promise.all([
+        set.status === "draft" || set.status === "returned" ? terminalSetSubmissionProblems({ set, system, submittedByName: null }) : Promise.resolve({}),
+        listReviewsOf({ terminalSetIds: [set.id] }),
+      ]);
+      const last = decisions[0];
+      const sectionIds = new Set(design.sections.filter((x) => x.systemId === system.id).map((x) => x.id));
+      submissions.push({
+        systemTag: system.tag,
+        set: { id: set.id, status: set.status, revision: set.revision },
+        terminalIds: design.terminals.filter((t) => sectionIds.has(t.sectionId)).map((t) => t.id),
+        problems,
+        lastReview: last ? { decision: last.decision, comment: last.reason, reviewerName: last.reviewerName, at: last.createdAt.toISOString() } : null,
+      });
+    }
+
   const initialReadings = plain<ProjectReadings>({
     systemId: null,
     sets: sets.map((s) => ({ id: s.id, systemId: s.systemId, status: s.status, version: s.version, revision: s.revision, updatedAt: s.updatedAt })),
@@ -148,6 +172,19 @@ export default async function TerminalsPage({ params }: { params: Promise<{ proj
         )}
       </section>
       <Cautions layout="tiles" />
+      {canRecord && submissions.length > 0 && (
+        <section aria-labelledby="terminal-submit-title" className="grid gap-3">
+          <h2 id="terminal-submit-title">Submit for review</h2>
+          <div className="grid gap-3 lg:grid-cols-2">
+            {submissions.map((s) => (
+              <div key={s.set.id} className="grid gap-1">
+                <h3>{s.systemTag}</h3>
+                <TerminalSetSubmit projectId={project.id} {...s} />
+              </div>
+            ))}
+          </div>
+        </section>
+      )}
       <TerminalsBoard
         projectId={project.id}
         project={{
