@@ -3,7 +3,7 @@ import { getProjectDesign, listTraversesForProject, type ProjectDesign } from "@
 import { listDeviations } from "@/db/queries/deviations";
 import { listConditionsByIds, listTerminalReadings, listTerminalSets, type TerminalReadingRow } from "@/db/queries/terminal-readings";
 import { listInstruments } from "@/db/queries/instruments";
-import type { AcceptedDeviation, AirSystem, DuctSection, Instrument, OperatingConditions, Project, Terminal, TerminalSet, TerminalSetpoint } from "@/db/schema";
+import type { AcceptedDeviation, DuctSection, Instrument, OperatingConditions, Project, Terminal, TerminalSet, TerminalSetpoint } from "@/db/schema";
 import { motorHeadroom, proportionalBalance, withinTolerance, type BranchPlan, type MotorHeadroom, type Tolerance } from "@/lib/airflow/balancing";
 import { compareConditionsAcross, type ConditionDifference, type ConditionsLike } from "@/lib/airflow/conditions";
 import { fanVersusOutlets, outletAccuracy, velocityFloorAsFlowM3S, type FanOutletsCheck, type OutletAccuracy } from "@/lib/airflow/fan-outlets";
@@ -55,6 +55,8 @@ export interface TerminalSetpointRow {
   reading: TerminalReadingRow | null;
   pctOfDesign: number | null;
   within: boolean | null;
+  /** The band this setpoint is judged in (outlets' or terminal units'). */
+  band: Tolerance;
   /** The set the reading belongs to, with its review status. */
   setStatus: TerminalSet["status"] | null;
 }
@@ -239,7 +241,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
           status: within === null ? "not_measured" : within ? "within" : "outside",
           missing: reading ? (designM3S ? null : `no design airflow scheduled at ${setpoint}`) : `no reading of ${terminal.tag}${setpoint === "design" ? "" : ` at ${setpoint}`}`,
         });
-        return { setpoint, designM3S, reading, pctOfDesign: pct, within, setStatus: reading ? (setStatus.get(reading.setId) ?? null) : null };
+        return { setpoint, designM3S, reading, pctOfDesign: pct, within, band, setStatus: reading ? (setStatus.get(reading.setId) ?? null) : null };
       });
       return { terminal, section, unit: isTerminalUnit(terminal.type), setpoints };
     });
