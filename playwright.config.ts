@@ -40,10 +40,12 @@ export default defineConfig({
   // Specs that change shared state run after the others, one stage at a time: the traverse journey
   // adds traverses; the matrix saves preferences as every role; the session spec ends sessions and changes a password.
   projects: [
-    { name: "journeys", testIgnore: /(authorization-matrix|sessions|traverse)\.spec\.ts/ },
+    { name: "journeys", testIgnore: /(authorization-matrix|sessions|traverse|engineer)\.spec\.ts/ },
     // The traverse journey adds traverses to the demo's exhaust sections, which the journeys show untouched.
     { name: "traverse", testMatch: /traverse\.spec\.ts/, dependencies: ["journeys"] },
-    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["traverse"] },
+    // The engineer of record's journey reads the remaining outlets and accepts a deviation.
+    { name: "engineer", testMatch: /engineer\.spec\.ts/, dependencies: ["traverse"] },
+    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["engineer"] },
     { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
   ],
   webServer: {

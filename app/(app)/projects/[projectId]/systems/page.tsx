@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { BalancingAids } from "@/components/airflow/balancing-aids";
 import { ductSize } from "@/components/airflow/format";
 import { JunctionBalanceChart, TerminalPctChart } from "@/components/engineer/charts";
@@ -117,7 +118,10 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
                     <td className="py-2 text-sm">
                       {row.latest ? (
                         <span className="flex flex-wrap items-center gap-1">
-                          Traverse rev. {row.latest.revision} <StatusBadge status={row.latest.status} />
+                          <Link href={`/projects/${projectId}/traverses/${row.latest.id}`} className="font-semibold text-accent-strong underline underline-offset-4" data-section={row.section.tag}>
+                            Traverse rev. {row.latest.revision}
+                          </Link>{" "}
+                          <StatusBadge status={row.latest.status} />
                         </span>
                       ) : (
                         <span className="text-ink-soft">No traverse</span>
