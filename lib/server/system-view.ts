@@ -34,7 +34,7 @@ export interface JudgedResult {
   measure: DeviationMeasure;
   systemId: string;
   systemTag: string;
-  /** "S1.2 · % of design", "VAV-1 at minimum · % of design", "Junction S1 · continuity by mass". */
+  /** "S1.2 airflow", "VAV-1 airflow at minimum", "Junction S1 continuity by mass". */
   label: string;
   value: number | null;
   unit: string;
@@ -185,7 +185,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
         subject: "section",
         entityId: row.section.id,
         measure: "design",
-        label: `${row.section.tag} · % of design`,
+        label: `${row.section.tag} airflow`,
         value: row.pctOfDesign,
         unit: "% of design",
         tolerance: formatTolerance(sectionTol),
@@ -206,7 +206,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
         subject: "junction",
         entityId: j.parent.id,
         measure: "continuity",
-        label: `Junction ${j.parent.tag} · continuity by mass`,
+        label: `Junction ${j.parent.tag} continuity by mass`,
         value: j.status === "checked" ? j.junction.imbalancePct : null,
         unit: "% of the trunk's mass flow",
         tolerance: `±${project.continuityTolerancePct} %`,
@@ -234,7 +234,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
           subject: "terminal",
           entityId: terminal.id,
           measure: setpoint,
-          label: setpoint === "design" ? `${terminal.tag} · % of design` : `${terminal.tag} at ${setpoint} · % of design`,
+          label: setpoint === "design" ? `${terminal.tag} airflow` : `${terminal.tag} airflow at ${setpoint}`,
           value: pct,
           unit: "% of design",
           tolerance: formatTolerance(band),
@@ -282,7 +282,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
       subject: "system",
       entityId: system.id,
       measure: "fan",
-      label: `${system.tag} fan · % of design`,
+      label: `${system.tag} fan airflow`,
       value: fanResult.pctOfDesign,
       unit: "% of design",
       tolerance: formatTolerance(fanTol),
@@ -316,7 +316,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
       subject: "system",
       entityId: system.id,
       measure: "unaccounted",
-      label: `${system.tag} · unaccounted airflow, fan against outlets`,
+      label: `${system.tag} unaccounted airflow (fan against outlets)`,
       value: unaccounted.status === "complete" ? unaccounted.unaccountedPct : null,
       unit: "% of the fan's airflow",
       tolerance: `±${project.continuityTolerancePct} %`,
@@ -353,7 +353,7 @@ export function buildSystemDetails(inputs: Inputs): SystemDetail[] {
         subject: "system",
         entityId: system.id,
         measure: "outside_air",
-        label: `${system.tag} · minimum outside air`,
+        label: `${system.tag} minimum outside air`,
         value: outsideAir.pctOfDesign,
         unit: "% of design",
         tolerance: formatTolerance(oaTol),

@@ -25,7 +25,7 @@ function Share({ label, done, total }: { label: string; done: number; total: num
     <div>
       <p className="flex justify-between gap-2">
         <span>{label}</span>
-        <span className="num font-semibold">
+        <span className="num font-semibold whitespace-nowrap">
           {done} of {total} ({share} %)
         </span>
       </p>

@@ -113,7 +113,7 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
                     <td className="num py-2 pr-3 text-right">{formatQuantity(units, "flow", row.section.designFlowM3S, { withUnit: false })}</td>
                     <td className="num py-2 pr-3 text-right">{row.reduction?.ok ? formatQuantity(units, "flow", row.reduction.result.standardFlowM3S, { withUnit: false }) : "—"}</td>
                     <td className="num py-2 pr-3 text-right">{pct1(row.pctOfDesign)}</td>
-                    <td className="py-2 pr-3 text-sm">{r?.tolerance}</td>
+                    <td className="py-2 pr-3 text-sm whitespace-nowrap">{r?.tolerance}</td>
                     <td className="py-2 pr-3">{r && <ResultCell result={r} />}</td>
                     <td className="py-2 text-sm">
                       {row.latest ? (
@@ -142,7 +142,7 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
                           <td className="num py-2 pr-3 text-right">{sp.designM3S === null ? "—" : formatQuantity(units, "flow", sp.designM3S, { withUnit: false })}</td>
                           <td className="num py-2 pr-3 text-right">{sp.reading ? formatQuantity(units, "flow", sp.reading.standardFlowM3S, { withUnit: false }) : "—"}</td>
                           <td className="num py-2 pr-3 text-right">{pct1(sp.pctOfDesign)}</td>
-                          <td className="py-2 pr-3 text-sm">{tr?.tolerance}</td>
+                          <td className="py-2 pr-3 text-sm whitespace-nowrap">{tr?.tolerance}</td>
                           <td className="py-2 pr-3">{tr && <ResultCell result={tr} />}</td>
                           <td className="py-2 text-sm">
                             {sp.reading ? (
@@ -192,13 +192,7 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
                     </strong>
                     , band ±{r?.tolerance.replace("±", "")}
                   </p>
-                  {j.junction.naiveVolumeImbalancePct !== null && !j.junction.volumesSummable && (
-                    <p className="num text-ink-soft">
-                      Summing actual volumes instead would show {signedPct(j.junction.naiveVolumeImbalancePct, 2)}: the air densities at these planes differ, so volumes do not add and
-                      mass is used.
-                    </p>
-                  )}
-                  <p className="text-sm text-ink-soft">{j.junction.note}</p>
+                  <p className="text-ink-soft">{j.junction.note}</p>
                   {differences.length > 0 && <ConditionsWarning messages={differences.map((x) => x.message)} />}
                 </>
               )}
@@ -270,12 +264,12 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
   );
 }
 
-function ResultCell({ result }: { result: JudgedResult }) {
+function ResultCell({ result, showMissing = true }: { result: JudgedResult; showMissing?: boolean }) {
   const status = badgeStatusOf(result.status, result.deviation !== null);
   return (
     <span className="inline-flex flex-col">
       <ResultBadge status={status} />
-      {result.status === "not_measured" && result.missing && <span className="text-sm text-ink-soft">Missing: {result.missing}</span>}
+      {showMissing && result.status === "not_measured" && result.missing && <span className="text-sm text-ink-soft">Missing: {result.missing}</span>}
     </span>
   );
 }
@@ -367,7 +361,7 @@ function UnaccountedTile({ detail, units, result }: { detail: SystemDetail; unit
       ) : (
         <div data-testid={`unaccounted-${detail.system.tag}`}>
           <p>{u.message}</p>
-          {result && <ResultCell result={result} />}
+          {result && <ResultCell result={result} showMissing={false} />}
         </div>
       )}
     </Tile>
@@ -392,7 +386,7 @@ function OutsideAirTile({ detail, units, result }: { detail: SystemDetail; units
             )}
           </p>
           <p className="text-sm text-ink-soft">{oa.basis}</p>
-          {result && <ResultCell result={result} />}
+          {result && <ResultCell result={result} showMissing={false} />}
         </>
       )}
     </Tile>
