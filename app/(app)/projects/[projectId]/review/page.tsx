@@ -1,3 +1,5 @@
+import { AcceptedDeviationsNote } from "@/components/engineer/accepted-deviations-note";
+import { listDeviations } from "@/db/queries/deviations";
 import type { Metadata } from "next";
 import { ductSize, pct } from "@/components/airflow/format";
 import { Card, EmptyState } from "@/components/ui/card";
@@ -32,6 +34,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
   const screen = await loadAirflowScreen(params, "traverse.review");
   if (!screen.allowed) return <NotAllowed what="reviewing readings" />;
   const { units, systems } = screen;
+  const deviations = await listDeviations({ projectId: screen.project.id });
   const queue = systems.flatMap(({ system, sections }) =>
     sections.filter((s) => s.latest?.status === "submitted").map((s) => ({ system, ...s, latest: s.latest! })),
   );
@@ -39,6 +42,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <h2>Awaiting your review ({queue.length})</h2>
+      <AcceptedDeviationsNote deviations={deviations} />
       {queue.length === 0 && <EmptyState>Nothing is waiting: every submitted traverse has a decision.</EmptyState>}
       {queue.map((item) => (
         <Card
