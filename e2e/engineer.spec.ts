@@ -62,7 +62,7 @@ test("the engineer of record checks continuity and the fan against its outlets, 
   const hoods = (await (await tech.get("/api/v1/instruments?kind=capture_hood")).json()).instruments as { id: string; serial: string; accuracyPct: number | null; accuracyFloor: number | null }[];
   const hood = hoods.find((h) => h.serial === "CH-7710")!;
   const listed = async () =>
-    ((await (await tech.get(`/api/v1/projects/${projectId}/terminal-readings?systemId=${ahu.id}`)).json()) as {
+    ((await (await engineer.get(`/api/v1/projects/${projectId}/terminal-readings?systemId=${ahu.id}`)).json()) as {
       readings: { terminalId: string; terminalTag: string; phase: "initial" | "final"; setpoint: string; standardFlowM3S: number; instrumentId: string | null; method: string; velocitiesMS: number[] | null; conditionsId: string | null }[];
     }).readings;
   const before = await listed();
@@ -134,18 +134,19 @@ test("the engineer of record checks continuity and the fan against its outlets, 
   await expectNoSeriousViolations(page);
 
   // Accept the first result outside its band, with a reason.
-  const item = page.locator("li", { has: page.getByRole("button", { name: /^Accept deviation…: / }) }).first();
-  const label = (await item.locator("strong").first().textContent())!;
-  await item.getByRole("button", { name: /^Accept deviation…: / }).click();
+  const first = page.locator("li", { has: page.getByRole("button", { name: /^Accept deviation: / }) }).first();
+  const label = (await first.locator("strong").first().textContent())!;
+  const item = page.locator("li").filter({ has: page.locator("strong").getByText(label, { exact: true }) });
+  await item.getByRole("button", { name: /^Accept deviation: / }).click();
   await item.getByRole("textbox").fill("short");
   await item.getByRole("button", { name: "Accept deviation", exact: true }).click();
   await expect(item.getByRole("alert")).toContainText("at least 10 characters");
   const reason = "Room use changed to storage; the lower airflow is agreed with the owner.";
   await item.getByRole("textbox").fill(reason);
   await item.getByRole("button", { name: "Accept deviation", exact: true }).click();
-  const accepted = page.locator("li", { hasText: label }).filter({ hasText: reason });
-  await expect(accepted).toBeVisible();
-  await expect(accepted).toContainText("Accepted deviation");
+  await expect(item).toContainText(reason);
+  await expect(item).toContainText("Accepted deviation");
+  await expect(item.getByRole("button", { name: /^Withdraw acceptance: / })).toBeVisible();
 
   await page.goto(`/projects/${projectId}`);
   const deviations = page.getByRole("region", { name: "Accepted deviations" });
