@@ -61,8 +61,6 @@ export function DeviationAction({ projectId, label, mode }: { projectId: string;
         onChange={(e) => setReason(e.target.value)}
         rows={3}
         maxLength={MAX_REASON_CHARS}
-        required
-        minLength={MIN_REASON_CHARS}
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? `${id}-error` : `${id}-hint`}
         className="w-full rounded-card border-2 border-line-strong bg-paper-raised p-2 text-base"
