@@ -75,7 +75,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
 
   return (
     <main className="mx-auto grid max-w-7xl items-start gap-gutter px-gutter py-6 lg:grid-cols-3">
-      <div className="space-y-gutter lg:col-span-2">
+      <div className="min-w-0 space-y-gutter lg:col-span-2">
         {details.length === 0 && (
           <EmptyState>
             No air systems yet.{" "}
@@ -89,6 +89,7 @@ export default async function ProjectOverviewPage({ params }: { params: Promise<
           return (
             <Card
               key={system.id}
+              className="min-w-0"
               title={
                 <span>
                   {system.tag} <span className="font-normal text-ink-soft">· {system.name}</span>

@@ -64,6 +64,7 @@ function SystemCard({ detail, units, projectId, mayAccept, standardDensity }: { 
 
   return (
     <Card
+      className="min-w-0"
       title={
         <span>
           {system.tag} <span className="font-normal text-ink-soft">· {system.name}</span>
