@@ -40,12 +40,14 @@ export default defineConfig({
   // Specs that change shared state run after the others, one stage at a time: the traverse journey
   // adds traverses; the matrix saves preferences as every role; the session spec ends sessions and changes a password.
   projects: [
-    { name: "journeys", testIgnore: /(authorization-matrix|sessions|traverse|review)\.spec\.ts/ },
+    { name: "journeys", testIgnore: /(authorization-matrix|sessions|traverse|review|engineer)\.spec\.ts/ },
     // The traverse journey adds traverses to the demo's exhaust sections, which the journeys show untouched.
     { name: "traverse", testMatch: /traverse\.spec\.ts/, dependencies: ["journeys"] },
     // The review journey submits, returns and approves a traverse of the exhaust trunk.
     { name: "review", testMatch: /review\.spec\.ts/, dependencies: ["traverse"] },
-    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["review"] },
+    // The engineer of record's journey reads the remaining outlets and accepts a deviation.
+    { name: "engineer", testMatch: /engineer\.spec\.ts/, dependencies: ["review"] },
+    { name: "matrix", testMatch: /authorization-matrix\.spec\.ts/, dependencies: ["engineer"] },
     { name: "sessions", testMatch: /sessions\.spec\.ts/, dependencies: ["matrix"] },
   ],
   webServer: {

@@ -906,3 +906,53 @@ export const reportApprovals = pgTable(
   ],
 );
 export type ReportApprovalRow = typeof reportApprovals.$inferSelect;
+
+/** What an accepted deviation is about: a duct section, an outlet or terminal unit, a junction's continuity, or a system-level result. */
+export const deviationSubject = pgEnum("deviation_subject", ["section", "terminal", "junction", "system"]);
+export type DeviationSubject = (typeof deviationSubject.enumValues)[number];
+
+/**
+ * The engineer of record's acceptance of a result outside its tolerance, with the reason and the value
+ * it was accepted at. `entityId` is the section, terminal, junction's parent section or system (no
+ * foreign key: the acceptance is history and outlives a design change); `measure` says which result of
+ * it (a terminal's setpoint, "design" for a section's % of design, "continuity", or a system's "fan",
+ * "unaccounted" or "outside_air"). Withdrawing keeps the row and records who, when and why; at most one
+ * acceptance of the same result stands at a time.
+ */
+export const acceptedDeviations = pgTable(
+  "accepted_deviations",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    projectId: uuid("project_id")
+      .notNull()
+      .references(() => projects.id, { onDelete: "cascade" }),
+    subject: deviationSubject("subject").notNull(),
+    entityId: uuid("entity_id").notNull(),
+    measure: text("measure").notNull(),
+    /** The item's tag and what was judged, as they read when accepted ("S1.2 · % of design"). */
+    label: text("label").notNull(),
+    /** The result when accepted, in `valueUnit` (e.g. 86.4 and "% of design"), and the band it was outside. */
+    acceptedValue: doublePrecision("accepted_value").notNull(),
+    valueUnit: text("value_unit").notNull(),
+    tolerance: text("tolerance").notNull(),
+    reason: text("reason").notNull(),
+    acceptedBy: uuid("accepted_by").references(() => users.id, { onDelete: "set null" }),
+    acceptedByName: text("accepted_by_name").notNull(),
+    acceptedAt: timestamp("accepted_at", { withTimezone: true }).notNull().defaultNow(),
+    withdrawnBy: uuid("withdrawn_by").references(() => users.id, { onDelete: "set null" }),
+    withdrawnByName: text("withdrawn_by_name"),
+    withdrawnAt: timestamp("withdrawn_at", { withTimezone: true }),
+    withdrawReason: text("withdraw_reason"),
+  },
+  (t) => [
+    index("accepted_deviations_project_idx").on(t.projectId, t.acceptedAt),
+    uniqueIndex("accepted_deviations_one_standing_idx").on(t.projectId, t.subject, t.entityId, t.measure).where(sql`${t.withdrawnAt} is null`),
+    check("accepted_deviations_reason", sql`length(${t.reason}) between 1 and 2000`),
+    check(
+      "accepted_deviations_withdrawal",
+      sql`(${t.withdrawnAt} is null and ${t.withdrawReason} is null) or (${t.withdrawnAt} is not null and length(coalesce(${t.withdrawReason}, '')) between 1 and 2000)`,
+    ),
+  ],
+);
+
+export type AcceptedDeviation = typeof acceptedDeviations.$inferSelect;

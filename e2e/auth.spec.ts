@@ -8,7 +8,7 @@ const CLINIC = "Marlow Quay Clinic — fit-out";
 const ROLES = [
   { email: "tech@example.test", role: "Technician", tabs: ["Overview", "Field work", "Reports", "Members"] },
   { email: "cx@example.test", role: "Commissioning agent", tabs: ["Overview", "Review", "Reports", "Members", "Activity"] },
-  { email: "engineer@example.test", role: "Engineer", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"] },
+  { email: "engineer@example.test", role: "Engineer of record", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"] },
   { email: "owner@example.test", role: "Owner", tabs: ["Overview", "Reports", "Members"] },
   { email: "admin@example.test", role: "Site administrator", tabs: ["Overview", "Set-up", "Design vs measured", "Reports", "Members", "Activity"] },
 ];

@@ -40,15 +40,16 @@ test("the commissioning agent's review queue lists the submitted traverses with 
   await expect(sample).toContainText("All 2 sampled items read: 2 agree");
 });
 
-test("the engineer sees design against measured, continuity by mass and balancing aids", async ({ page }) => {
+test("the engineer of record sees design against measured, continuity by mass and balancing aids", async ({ page }) => {
   await openLibraryTab(page, "engineer@example.test", "Design vs measured");
   const supply = page.getByRole("region").filter({ hasText: "AHU-1 · Reading rooms supply" });
-  await expect(supply.getByRole("row").filter({ hasText: "S1.3" })).toContainText("out");
+  await expect(supply.getByRole("row").filter({ hasText: "S1.3" }).first()).toContainText("Outside band");
   await expect(supply).toContainText("S1 → S1.1 + S1.2 + S1.3");
   await expect(supply).toContainText("compare mass flows, not volumes");
   await expect(supply).toContainText("Reference: leave fully open");
   await expect(supply).toContainText("would reach design (fan laws)");
   await expect(page.getByRole("region").filter({ hasText: "EF-1" })).toContainText("X1 → X1.1 + X1.2");
+  await expect(supply).toContainText("qualified person");
 });
 
 test("the owner's reports screen shows readiness and the cautions every report carries", async ({ page }) => {

@@ -1,7 +1,7 @@
 import "server-only";
-import { asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "../client";
-import { airSystems, ductSections, readings, terminals, traverses, users } from "../schema";
+import { airSystems, ductSections, readings, reviews, terminals, traverses, users } from "../schema";
 
 /** The design side of a project: systems, their duct trees and terminals, in stable order. */
 export async function getProjectDesign({ projectId }: { projectId: string }) {
@@ -53,3 +53,18 @@ export async function listTraversesForProject({ projectId }: { projectId: string
 
 export type StoredTraverse = Awaited<ReturnType<typeof listTraversesForProject>>[number];
 export type ProjectDesign = Awaited<ReturnType<typeof getProjectDesign>>;
+
+/** The newest approval of each given traverse, with who gave it and when (for the owner's dashboard and the report). */
+export async function listTraverseApprovals({ traverseIds }: { traverseIds: readonly string[] }) {
+  if (traverseIds.length === 0) return new Map<string, { reviewerName: string | null; at: Date }>();
+  const db = await getDb();
+  const rows = await db
+    .select({ traverseId: reviews.traverseId, reviewerName: users.name, at: reviews.createdAt })
+    .from(reviews)
+    .leftJoin(users, eq(users.id, reviews.reviewerId))
+    .where(and(inArray(reviews.traverseId, [...traverseIds]), eq(reviews.decision, "approved")))
+    .orderBy(desc(reviews.createdAt));
+  const out = new Map<string, { reviewerName: string | null; at: Date }>();
+  for (const r of rows) if (r.traverseId !== null && !out.has(r.traverseId)) out.set(r.traverseId, { reviewerName: r.reviewerName, at: r.at });
+  return out;
+}

@@ -136,6 +136,10 @@ export const ENDPOINTS: Endpoint[] = [
   { method: "GET", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "project.view" }, ok: 404 },
   { method: "POST", route: "/api/v1/projects/[projectId]/terminals/[terminalId]/readings", path: `/api/v1/projects/{projectId}/terminals/${UNKNOWN_ID}/readings`, rule: { action: "terminal.record" }, body: {}, ok: 404 },
   { method: "GET", route: "/api/v1/projects/[projectId]/terminal-readings", path: "/api/v1/projects/{projectId}/terminal-readings", rule: { action: "project.view" }, ok: 200 },
+  // Accepted deviations: every member reads; the engineer of record accepts and withdraws (an incomplete body answers 400, an unknown one 404).
+  { method: "GET", route: "/api/v1/projects/[projectId]/deviations", path: "/api/v1/projects/{projectId}/deviations", rule: { action: "design.view" }, ok: 200 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/deviations", path: "/api/v1/projects/{projectId}/deviations", rule: { action: "deviation.accept" }, body: {}, ok: 400 },
+  { method: "POST", route: "/api/v1/projects/[projectId]/deviations/[deviationId]/withdrawal", path: `/api/v1/projects/{projectId}/deviations/${UNKNOWN_ID}/withdrawal`, rule: { action: "deviation.accept" }, body: {}, ok: 404 },
   { method: "GET", route: "/api/v1/instruments/[instrumentId]/certificate", path: `/api/v1/instruments/${UNKNOWN_ID}/certificate`, rule: { outsideProject: "signed-in" }, ok: 404 },
   // The instrument is looked up before the file is read: an unknown one is refused without a body.
   { method: "POST", route: "/api/v1/instruments/[instrumentId]/certificate", path: `/api/v1/instruments/${UNKNOWN_ID}/certificate`, rule: { outsideProject: "signed-in" }, only: REGISTER_KEEPERS, ok: 404 },

@@ -255,3 +255,36 @@ export function fanSpeedForFlow(point: FanPoint, targetFlowM3S: number, limits: 
   checkFanPoint(point, limits);
   return fanAtSpeed(point, (point.speedRpm * targetFlowM3S) / point.flowM3S, limits);
 }
+
+/** What a fan-law speed change asks of the motor, from its nameplate (no measured power needed). */
+export interface MotorHeadroom {
+  /** Shaft power at the target speed as a multiple of today's (fan laws, N³). */
+  powerFactor: number;
+  nameplateKw: number;
+  /**
+   * Today's shaft power must stay below this for the target speed to remain within the nameplate
+   * rating: nameplate ÷ powerFactor (fan laws, same density). Compare it with the measured motor power.
+   */
+  maxPresentKw: number;
+  /** maxPresentKw as % of the nameplate. */
+  maxPresentPctOfNameplate: number;
+  /** The same limit against nameplate × service factor, null when no service factor is stated. */
+  maxPresentWithServiceFactorKw: number | null;
+}
+
+/**
+ * The motor load today below which a fan-law speed increase stays within the nameplate: P_new = P_now ×
+ * (N_new/N_now)³ ≤ P_rated ⇔ P_now ≤ P_rated ÷ (N_new/N_now)³. A service factor above 1 is a margin for
+ * occasional overload, not running capacity: the screen says a qualified person decides.
+ */
+export function motorHeadroom(powerFactor: number, motor: { powerKw: number; serviceFactor: number | null }): MotorHeadroom | null {
+  if (!(powerFactor > 0) || !(motor.powerKw > 0)) return null;
+  const maxPresentKw = motor.powerKw / powerFactor;
+  return {
+    powerFactor,
+    nameplateKw: motor.powerKw,
+    maxPresentKw,
+    maxPresentPctOfNameplate: 100 / powerFactor,
+    maxPresentWithServiceFactorKw: motor.serviceFactor !== null && motor.serviceFactor > 0 ? (motor.powerKw * motor.serviceFactor) / powerFactor : null,
+  };
+}

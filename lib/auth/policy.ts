@@ -93,7 +93,7 @@ export function canKeepInstrumentRegister(actor: Actor, roles: readonly (MemberR
 export const ROLE_LABELS: Record<MemberRole, string> = {
   technician: "Technician",
   commissioning_agent: "Commissioning agent",
-  engineer: "Engineer",
+  engineer: "Engineer of record",
   owner: "Owner",
 };
 

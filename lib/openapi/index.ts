@@ -1,6 +1,7 @@
 import { buildOpenApiDocument, type Operation } from "./registry";
 import { coreOperations } from "./operations/core";
 import { designOperations } from "./operations/design";
+import { deviationOperations } from "./operations/deviations";
 import { fieldOperations } from "./operations/field";
 import { fileOperations } from "./operations/files";
 import { peopleOperations } from "./operations/people";
@@ -15,6 +16,7 @@ export const OPERATIONS: readonly Operation[] = [
   ...fieldOperations,
   ...traverseOperations,
   ...terminalOperations,
+  ...deviationOperations,
   ...peopleOperations,
   ...fileOperations,
   ...reviewOperations,

@@ -12,6 +12,7 @@ import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { getProjectDesign, listTraversesForProject, type StoredTraverse } from "@/db/queries/airflow";
+import { listDeviations } from "@/db/queries/deviations";
 import { getSampleInProject, listSamples } from "@/db/queries/samples";
 import { listConditionsByIds, listTerminalReadings, listTerminalSets } from "@/db/queries/terminal-readings";
 import { instruments, photos, projects, reviews, users, type Instrument } from "@/db/schema";
@@ -111,12 +112,21 @@ export async function loadVerificationSample({ projectId }: { projectId: string 
 }
 
 /**
- * Deviations from design the engineer of record accepted, with their reasons. Empty until the
- * deviations table exists; wire the engineer's accepted deviations here.
+ * Deviations from design the engineer of record accepted and has not withdrawn, with their reasons and
+ * the value each result was accepted at.
  */
 export async function loadAcceptedDeviations({ projectId }: { projectId: string }): Promise<ReportDeviation[]> {
-  void projectId;
-  return [];
+  const rows = await listDeviations({ projectId });
+  return rows.map((d) => {
+    const isPct = d.valueUnit === "% of design";
+    return {
+      item: isPct ? `${d.label} (band ${d.tolerance})` : `${d.label}: ${Number(d.acceptedValue.toPrecision(4))} ${d.valueUnit} (band ${d.tolerance})`,
+      pctOfDesign: isPct ? d.acceptedValue : null,
+      reason: d.reason,
+      acceptedBy: d.acceptedByName,
+      acceptedAt: d.acceptedAt.toISOString(),
+    };
+  });
 }
 
 const statusOf = (t: StoredTraverse | null | undefined): ItemStatus => (t ? t.status : "not read");

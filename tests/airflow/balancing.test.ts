@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   BalancingError,
+  motorHeadroom,
   fanAtSpeed,
   fanSpeedForFlow,
   percentOfDesign,
@@ -191,5 +192,18 @@ describe("fan laws", () => {
     expect(() => fanAtSpeed({ ...point, densityKgM3: undefined }, 1000, { densityKgM3: 1.1 })).toThrow(BalancingError);
     expect(() => fanAtSpeed(point, 0)).toThrow(/new fan speed/);
     expect(() => fanSpeedForFlow({ ...point, speedRpm: -5 }, 2)).toThrow(/fan\.speed_rpm/);
+  });
+});
+
+describe("motor headroom for a fan-law speed increase", () => {
+  it("limits today's load to nameplate ÷ (N₂/N₁)³ (fan laws, power ∝ N³; closed form)", () => {
+    // 1000 → 1100 rpm: power × 1.331. A 7.5 kW motor stays within its nameplate only if it draws
+    // less than 7.5 / 1.331 = 5.635 kW today (75.13 % of nameplate); with service factor 1.15, 6.480 kW.
+    const h = motorHeadroom(1.1 ** 3, { powerKw: 7.5, serviceFactor: 1.15 })!;
+    expect(h.maxPresentKw).toBeCloseTo(7.5 / 1.331, 9);
+    expect(h.maxPresentPctOfNameplate).toBeCloseTo(75.131, 3);
+    expect(h.maxPresentWithServiceFactorKw).toBeCloseTo((7.5 * 1.15) / 1.331, 9);
+    expect(motorHeadroom(1.331, { powerKw: 7.5, serviceFactor: null })!.maxPresentWithServiceFactorKw).toBeNull();
+    expect(motorHeadroom(0, { powerKw: 7.5, serviceFactor: null })).toBeNull();
   });
 });

@@ -1,3 +1,5 @@
+import { AcceptedDeviationsNote } from "@/components/engineer/accepted-deviations-note";
+import { listDeviations } from "@/db/queries/deviations";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { ductSize, pct } from "@/components/airflow/format";
@@ -35,10 +37,11 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
   const { units, systems, project } = screen;
   const canAddPhotos = can(screen.user, screen.access.role, "photo.add");
 
-  const [terminalCounts, instrumentsInUse, conditionLists] = await Promise.all([
+  const [terminalCounts, instrumentsInUse, conditionLists, deviations] = await Promise.all([
     countTerminalsBySystem({ projectId: project.id }),
     listInstrumentsUsedInProject({ projectId: project.id }),
     Promise.all(systems.map(async ({ system }) => [system.id, JSON.parse(JSON.stringify((await listConditionsForSystem({ systemId: system.id, limit: 10 })).map(conditionsJson))) as Conditions[]] as const)),
+    listDeviations({ projectId: project.id }),
   ]);
   const conditionsBySystem = new Map(conditionLists);
   const today = new Date();
@@ -47,6 +50,7 @@ export default async function FieldWorkPage({ params }: { params: Promise<{ proj
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       <SyncStatusBanner />
       <Cautions layout="tiles" />
+      <AcceptedDeviationsNote deviations={deviations.filter((d) => d.subject === "section" || d.subject === "junction")} />
       {systems.length === 0 && <EmptyState>No air systems in this project yet: the project&apos;s engineer sets them up in Set-up before field work can start.</EmptyState>}
 
       {systems.map(({ system, sections }) => {

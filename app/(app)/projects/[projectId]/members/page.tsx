@@ -57,7 +57,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
                         {supervisor.designation?.userId === m.userId && <span className="ml-2 whitespace-nowrap rounded-full border border-accent px-2 text-xs text-accent-strong">TAB supervisor</span>}
                         <span className="block text-sm text-ink-soft [overflow-wrap:anywhere]">{m.email}</span>
                       </td>
-                      <td className="py-2 pr-3">{m.role === "engineer" ? "Engineer of record" : ROLE_LABELS[m.role]}</td>
+                      <td className="py-2 pr-3">{ROLE_LABELS[m.role]}</td>
                       <td className="num whitespace-nowrap py-2 pr-3">{m.since.toISOString().slice(0, 10)}</td>
                       {mayInvite && (
                         <td className="py-2">
@@ -89,7 +89,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
                       <div>
                         <p className="font-semibold break-all">{inv.email}</p>
                         <p className="text-sm text-ink-soft">
-                          {inv.role === "engineer" ? "Engineer of record" : ROLE_LABELS[inv.role]} · invited by {inv.invitedByName ?? "someone"} ·{" "}
+                          {ROLE_LABELS[inv.role]} · invited by {inv.invitedByName ?? "someone"} ·{" "}
                           {expired ? <strong className="text-fault">expired {when(inv.expiresAt)}</strong> : <>expires {when(inv.expiresAt)}</>}
                         </p>
                       </div>

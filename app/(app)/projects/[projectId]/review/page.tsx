@@ -1,4 +1,6 @@
 import type { Metadata } from "next";
+import { AcceptedDeviationsNote } from "@/components/engineer/accepted-deviations-note";
+import { listDeviations } from "@/db/queries/deviations";
 import { listConditionsForSystem } from "@/db/queries/conditions";
 import { ReviewQueue } from "@/components/review/review-queue";
 import { SamplePanel, type SampleSystem } from "@/components/review/sample-panel";
@@ -20,7 +22,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
   if (!allowed) return <NotAllowed what="reviewing readings" />;
   const { project } = access;
   const units = unitSystemFor(user, project);
-  const [queue, samples] = await Promise.all([reviewQueue(project), listVerificationSamples(project, null)]);
+  const [queue, samples, deviations] = await Promise.all([reviewQueue(project), listVerificationSamples(project, null), listDeviations({ projectId: project.id })]);
   const systems: SampleSystem[] = await Promise.all(
     queue.systems.map(async (s) => ({
       ...s,
@@ -34,6 +36,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
       <section aria-labelledby="queue-heading" className="grid gap-3">
         <h2 id="queue-heading">Review queue</h2>
         <p className="text-ink-soft">Approve or return each submitted traverse and each system&apos;s terminal readings; a return goes back to the technician with your comment. Approved readings are locked; a re-traverse starts a new revision that needs its own approval.</p>
+        <AcceptedDeviationsNote deviations={deviations} />
         <ReviewQueue projectId={project.id} initial={asJson<QueueJson>(queue)} units={units} canDecide />
       </section>
       <section aria-labelledby="samples-heading" className="grid gap-3">

@@ -1,3 +1,5 @@
+import { AcceptedDeviationsNote } from "@/components/engineer/accepted-deviations-note";
+import { listDeviations } from "@/db/queries/deviations";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { SyncStatusBanner } from "@/components/offline/sync-status-banner";
@@ -37,12 +39,13 @@ export default async function TerminalsPage({ params }: { params: Promise<{ proj
   const canRecord = can(user, access.role, "terminal.record");
   const format = formatFor(user, project);
 
-  const [design, { rows, truncated }, sets, traverses, instruments] = await Promise.all([
+  const [design, { rows, truncated }, sets, traverses, instruments, deviations] = await Promise.all([
     getProjectDesign({ projectId: project.id }),
     listTerminalReadings({ projectId: project.id }),
     listTerminalSets({ projectId: project.id }),
     listTraversesOfSingleTerminalSections({ projectId: project.id }),
     instrumentMap(),
+    listDeviations({ projectId: project.id }),
   ]);
   const [conditionLists, referenced] = await Promise.all([
     Promise.all(design.systems.map(async (s) => [s.id, plain<Conditions[]>((await listConditionsForSystem({ systemId: s.id, limit: 10 })).map(conditionsJson))] as const)),
@@ -157,6 +160,7 @@ export default async function TerminalsPage({ params }: { params: Promise<{ proj
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
       {canRecord && <SyncStatusBanner />}
+      <AcceptedDeviationsNote deviations={deviations.filter((d) => d.subject === "terminal")} />
       <section aria-labelledby="terminals-title" className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h2 id="terminals-title">Outlets and terminal units</h2>

@@ -1,3 +1,5 @@
+import { AcceptedDeviationsNote } from "@/components/engineer/accepted-deviations-note";
+import { listDeviations } from "@/db/queries/deviations";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -36,8 +38,10 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
   const { section, system } = found;
   const tol = toleranceFor(project, "section");
   const latest = resource.revisions[0];
+  const deviations = (await listDeviations({ projectId: project.id })).filter((d) => (d.subject === "section" || d.subject === "junction") && d.entityId === section.id);
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
+      <AcceptedDeviationsNote deviations={deviations} />
       <nav aria-label="Breadcrumb" className="text-sm">
         {canRecord ? (
           <Link href={fieldRoutes.hub(project.id)} className="inline-flex min-h-touch items-center font-semibold text-accent-strong underline underline-offset-4">
