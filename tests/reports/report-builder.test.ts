@@ -112,6 +112,23 @@ describe("a draft", () => {
     expect(all).toContain("Traverse AHU-1 / S1");
     expect(all).toContain("Submitted, awaiting review");
   });
+
+  it("lists the engineer of record's standing accepted deviations with their reasons, and not withdrawn ones", async () => {
+    const [s13] = await demo.db
+      .select({ id: s.ductSections.id })
+      .from(s.ductSections)
+      .innerJoin(s.airSystems, eq(s.airSystems.id, s.ductSections.systemId))
+      .where(and(eq(s.airSystems.projectId, demo.library.id), eq(s.ductSections.tag, "S1.3")));
+    const row = { projectId: demo.library.id, subject: "section" as const, entityId: s13!.id, measure: "design", label: "S1.3 · % of design", valueUnit: "% of design", tolerance: "±10 %", acceptedBy: demo.engineer.id, acceptedByName: demo.engineer.name };
+    await demo.db.insert(s.acceptedDeviations).values([
+      { ...row, acceptedValue: 84.2, reason: "Children's library is under-occupied this term; rebalance at the autumn check." },
+      { ...row, measure: "design-old", acceptedValue: 80, reason: "An earlier acceptance, since withdrawn.", withdrawnAt: new Date(), withdrawnByName: demo.engineer.name, withdrawReason: "Superseded." },
+    ]);
+    const all = (await readPdfText(await buildDraftReport({ projectId: demo.library.id }))).map((p) => p.text).join(" ");
+    expect(all).toContain("S1.3 · % of design (band ±10 %) 84 %");
+    expect(all).toContain("Children's library is under-occupied this term");
+    expect(all).not.toContain("An earlier acceptance, since withdrawn.");
+  });
 });
 
 describe("issuing", () => {
