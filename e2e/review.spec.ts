@@ -82,7 +82,7 @@ test("the technician submits, the agent samples and returns, the technician resu
   await page.goto(`/projects/${projectId}/review`);
   await expect(page.getByRole("heading", { name: "Review queue" })).toBeVisible();
   await page.getByLabel("System", { exact: true }).selectOption({ label: `EF-1 — ${ef.name}` });
-  const row = page.getByRole("row", { name: /EF-1 \/ X1/ });
+  const row = page.getByRole("row", { name: /EF-1 \/ X1 Traverse/ });
   await expect(row).toBeVisible();
   await page.getByRole("button", { name: /Draw a verification sample of EF-1/ }).click();
   const sample = page.getByRole("region", { name: /EF-1/ });
@@ -117,9 +117,9 @@ test("the technician submits, the agent samples and returns, the technician resu
   // The agent approves.
   await signIn(page, "cx@example.test");
   await page.goto(`/projects/${projectId}/review`);
-  await page.getByRole("row", { name: /EF-1 \/ X1/ }).getByRole("button", { name: /Review/ }).click();
-  await page.getByRole("button", { name: /Approve EF-1 \/ X1/ }).click();
-  await expect(page.getByRole("row", { name: /EF-1 \/ X1/ }).getByText("Approved")).toBeVisible();
+  await page.getByRole("row", { name: /EF-1 \/ X1 Traverse/ }).getByRole("button", { name: /Review/ }).click();
+  await page.getByRole("button", { name: /Approve EF-1 \/ X1\b(?!\.)/ }).click();
+  await expect(page.getByRole("row", { name: /EF-1 \/ X1 Traverse/ }).getByText("Approved")).toBeVisible();
 
   // The agent's Activity screen lists the decisions, newest first.
   await page.goto(`/projects/${projectId}/activity`);
@@ -156,7 +156,9 @@ test("the engineer's Design vs measured page shows the demo trunk's continuity a
   const junction = (network.value as { junctions: { id: string; imbalance_pct: number }[] }).junctions.find((j) => j.id === "S1")!;
   await page.goto(`/projects/${projectId}/systems`);
   const item = page.getByRole("listitem").filter({ hasText: "S1 → S1.1 + S1.2 + S1.3" });
-  await expect(item).toContainText(`(${junction.imbalance_pct.toFixed(1)} %`);
+  // The system view prints the imbalance signed, to two decimals, as a share of the trunk's mass flow.
+  const signed = `${junction.imbalance_pct >= 0 ? "+" : "−"}${Math.abs(junction.imbalance_pct).toFixed(2)}`;
+  await expect(item).toContainText(`imbalance ${signed} % by mass`);
 });
 
 async function approvedCount(page: Page, email: string): Promise<number> {
