@@ -1,9 +1,10 @@
-import AxeBuilder from "@axe-core/playwright";
-import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, test, type APIRequestContext } from "@playwright/test";
 import { fanVersusOutlets, outletAccuracy } from "../lib/airflow/fan-outlets";
 import { checkContinuity } from "../lib/airflow/network";
 import { formatExpandedUncertainty } from "../lib/airflow/uncertainty";
-import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
+import { SignInPage } from "./pages/sign-in-page";
+import { expectNoSeriousViolations } from "./support/axe";
+import { apiAs } from "./support/api";
 
 /**
  * The engineer of record's journey: the system view's continuity at the demo trunk equals the
@@ -11,19 +12,6 @@ import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
  * accepted with a reason and shown on the overview; the owner's dashboard shows approvals and the
  * deviation and offers no controls. Changes the demo (readings, a deviation): runs in its own stage.
  */
-
-async function expectNoSeriousViolations(page: Page) {
-  await expect(page).toHaveTitle(/\S/);
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
-}
-
-async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, email: string) {
-  const api = await playwright.request.newContext({ baseURL });
-  expect((await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
-  return api;
-}
 
 async function libraryId(api: APIRequestContext): Promise<string> {
   const projects = (await (await api.get("/api/v1/projects")).json()).projects as { id: string; siteName: string }[];

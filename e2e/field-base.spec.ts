@@ -1,21 +1,9 @@
-import AxeBuilder from "@axe-core/playwright";
-import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
 import { conditionsPanel, openFieldWork } from "./pages/field-page";
-import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
+import { SignInPage } from "./pages/sign-in-page";
 import { goOffline, goOnline } from "./support/network";
-
-async function expectNoSeriousViolations(page: Page) {
-  await expect(page).toHaveTitle(/\S/);
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
-}
-
-async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, email: string) {
-  const api = await playwright.request.newContext({ baseURL });
-  expect((await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
-  return api;
-}
+import { expectNoSeriousViolations } from "./support/axe";
+import { apiAs } from "./support/api";
 
 /** Types into the focused control, key by key, as a keyboard does. */
 async function type(page: Page, text: string) {

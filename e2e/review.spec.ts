@@ -1,7 +1,7 @@
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
 import { runCalcCommand } from "../lib/airflow/commands";
 import { DEMO_PASSWORD } from "./pages/sign-in-page";
+import { expectNoSeriousViolations } from "./support/axe";
 
 /**
  * The review cycle in the browser: the technician submits a traverse → the commissioning agent draws
@@ -21,12 +21,6 @@ const SIZES = [
 async function signIn(page: Page, email: string) {
   await page.context().clearCookies();
   expect((await page.request.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
-}
-
-async function expectNoSeriousViolations(page: Page) {
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
 }
 
 async function shoot(page: Page, name: string) {

@@ -1,16 +1,10 @@
-import AxeBuilder from "@axe-core/playwright";
-import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
 import { computeReadingFlow, judgeReading, type ProjectBasis } from "../lib/terminals/reading";
-import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
+import { SignInPage } from "./pages/sign-in-page";
 import { TerminalsPage } from "./pages/terminals-page";
 import { goOffline, goOnline } from "./support/network";
-
-async function expectNoSeriousViolations(page: Page) {
-  await expect(page).toHaveTitle(/\S/);
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
-}
+import { expectNoSeriousViolations } from "./support/axe";
+import { apiAs } from "./support/api";
 
 /** Every control in `main` at least 44 px tall (measured in one pass in the page). */
 async function expectTouchTargets(page: Page) {
@@ -22,12 +16,6 @@ async function expectTouchTargets(page: Page) {
   });
   expect(small.count).toBeGreaterThan(20);
   expect(small.small).toEqual([]);
-}
-
-async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, email: string) {
-  const api = await playwright.request.newContext({ baseURL });
-  expect((await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
-  return api;
 }
 
 // The library as seeded: 210 m, standard air 1.204 kg/m³, ±10 % on outlets and terminal units.

@@ -1,11 +1,12 @@
-import AxeBuilder from "@axe-core/playwright";
-import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
 import { runCalcCommand } from "../lib/airflow/commands";
 import { formatExpandedUncertainty } from "../lib/airflow/uncertainty";
 import { formatQuantity } from "../lib/units";
 import { openFieldWork } from "./pages/field-page";
-import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
+import { SignInPage } from "./pages/sign-in-page";
 import { goOffline, goOnline } from "./support/network";
+import { expectNoSeriousViolations } from "./support/axe";
+import { apiAs } from "./support/api";
 
 /**
  * The technician's traverse, end to end: started and read with the keyboard only on each screen size,
@@ -13,19 +14,6 @@ import { goOffline, goOnline } from "./support/network";
  * the middle and every reading still reaching the server, a meter's file imported, and an owner kept
  * out. Runs after the other journeys (its own Playwright project): it adds traverses to the demo.
  */
-
-async function expectNoSeriousViolations(page: Page) {
-  await expect(page).toHaveTitle(/\S/);
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
-}
-
-async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, email: string) {
-  const api = await playwright.request.newContext({ baseURL });
-  expect((await api.post("/api/auth/sign-in", { data: { email, password: DEMO_PASSWORD } })).status()).toBe(204);
-  return api;
-}
 
 async function expectTargetsAtLeast44px(page: Page) {
   const controls = page.locator("main button, main a, main input:not([type=checkbox]):not([type=radio]):not([type=file]), main select, main label:has(input[type=radio]), main summary");

@@ -9,9 +9,9 @@ import type { DeviceTerminalReading, TerminalReading, TerminalReadingBody } from
 import type { Conditions, Instrument } from "@/lib/api-client/field";
 import { instrumentName, KIND_INFO } from "@/lib/instruments/kinds";
 import type { SyncError, SyncState } from "@/lib/offline/types";
-import { computeReadingFlow, judgeReading, type ProjectBasis, type QuantityFormat, type ReadingValues } from "@/lib/terminals/reading";
+import { computeReadingFlow, judgeReading, readingValuesFromBody, type ProjectBasis, type QuantityFormat, type ReadingValues } from "@/lib/terminals/reading";
 import type { ReadingMethod, ReadingPhase, TerminalDesign } from "@/lib/terminals/setpoints";
-import type { TerminalKind } from "@/lib/validation/design";
+import { isTerminalUnit, type TerminalKind } from "@/lib/validation/design";
 import type { UnitSystem } from "@/lib/units";
 
 export interface BoardTerminal extends TerminalDesign {
@@ -127,24 +127,7 @@ export function viewFromServer(r: TerminalReading): ReadingView {
 
 /** The body kept on the device as the arithmetic takes it (SI, every method's fields). */
 export function valuesFromBody(body: TerminalReadingBody, terminal: BoardTerminal, instrument: Instrument | null): ReadingValues {
-  return {
-    method: body.method,
-    phase: body.phase,
-    setpoint: body.setpoint ?? "design",
-    hoodFlowM3S: body.hoodFlowM3S ?? null,
-    hoodCorrectionFactor: body.method === "hood" ? (body.hoodCorrectionFactor ?? instrument?.hoodCorrectionFactor ?? 1) : null,
-    hoodDensityCorrected: body.hoodDensityCorrected ?? null,
-    hoodBackPressureCompensated: body.hoodBackPressureCompensated ?? null,
-    velocitiesMS: body.velocitiesMS ?? null,
-    velocityBasis: body.velocityBasis ?? null,
-    effectiveAreaM2: body.method === "velocity_area" ? (body.effectiveAreaM2 ?? terminal.effectiveAreaM2) : null,
-    dryBulbC: body.dryBulbC ?? null,
-    relativeHumidityPct: body.relativeHumidityPct ?? null,
-    barometricPa: body.barometricPa ?? null,
-    controllerFlowM3S: body.controllerFlowM3S ?? null,
-    controllerFlowFactor: body.controllerFlowM3S != null ? (body.controllerFlowFactor ?? terminal.controllerFlowFactor) : null,
-    damperMarked: body.damperMarked ?? false,
-  };
+  return readingValuesFromBody(body, body.setpoint ?? "design", { isUnit: isTerminalUnit(terminal.kind), effectiveAreaM2: terminal.effectiveAreaM2, controllerFlowFactor: terminal.controllerFlowFactor }, instrument);
 }
 
 /**

@@ -10,7 +10,7 @@ import { EngineInputError } from "@/lib/airflow/errors";
 import { compareConditions, BOX_LABELS } from "@/lib/airflow/conditions";
 import { instrumentName, KIND_INFO } from "@/lib/instruments/kinds";
 import { calibrationProblems } from "@/lib/instruments/usability";
-import { computeReadingFlow, ReadingInputError, verdictWords, type ReadingValues } from "@/lib/terminals/reading";
+import { computeReadingFlow, ReadingInputError, readingValuesFromBody, verdictWords } from "@/lib/terminals/reading";
 import { SETPOINT_LABELS, setpointsFor } from "@/lib/terminals/setpoints";
 import { isTerminalUnit } from "@/lib/validation/design";
 import { formatQuantity, unitSystemFor } from "@/lib/units";
@@ -139,24 +139,7 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
   if (Object.keys(fields).length > 0) return invalid(fields);
 
   // The airflow.
-  const values: ReadingValues = {
-    method: body.method,
-    phase: body.phase,
-    setpoint: setpoint!,
-    hoodFlowM3S: body.hoodFlowM3S ?? null,
-    hoodCorrectionFactor: body.method === "hood" ? (body.hoodCorrectionFactor ?? instrument?.hoodCorrectionFactor ?? 1) : null,
-    hoodDensityCorrected: body.hoodDensityCorrected ?? null,
-    hoodBackPressureCompensated: body.hoodBackPressureCompensated ?? null,
-    velocitiesMS: body.velocitiesMS ?? null,
-    velocityBasis: body.velocityBasis ?? null,
-    effectiveAreaM2: body.method === "velocity_area" ? (body.effectiveAreaM2 ?? terminal.effectiveAreaM2) : null,
-    dryBulbC: body.dryBulbC ?? null,
-    relativeHumidityPct: body.relativeHumidityPct ?? null,
-    barometricPa: body.barometricPa ?? null,
-    controllerFlowM3S: unit ? (body.controllerFlowM3S ?? null) : null,
-    controllerFlowFactor: unit && body.controllerFlowM3S != null ? (body.controllerFlowFactor ?? terminal.controllerFlowFactor) : null,
-    damperMarked: body.damperMarked,
-  };
+  const values = readingValuesFromBody(body, setpoint!, { isUnit: unit, effectiveAreaM2: terminal.effectiveAreaM2, controllerFlowFactor: terminal.controllerFlowFactor }, instrument);
   let flow: { flowM3S: number; standardFlowM3S: number; densityKgM3: number | null; warnings: string[] };
   if (traverseFlow) flow = { ...traverseFlow, warnings: [] };
   else {

@@ -67,6 +67,39 @@ export interface ReadingValues {
   damperMarked: boolean;
 }
 
+/**
+ * What the arithmetic takes from a reading's body: every method's fields in SI, with the terminal's
+ * effective area and flow factor and the hood's correction factor from the register filled in where the
+ * body leaves them out. The tablet and the server build it the same way; only terminal units keep the
+ * controller's displayed airflow.
+ */
+export function readingValuesFromBody(
+  body: Pick<ReadingValues, "method" | "phase"> & Partial<Omit<ReadingValues, "method" | "phase" | "setpoint">>,
+  setpoint: TerminalSetpoint,
+  terminal: { isUnit: boolean; effectiveAreaM2: number | null; controllerFlowFactor: number | null },
+  instrument: { hoodCorrectionFactor: number | null } | null,
+): ReadingValues {
+  const controllerFlowM3S = terminal.isUnit ? (body.controllerFlowM3S ?? null) : null;
+  return {
+    method: body.method,
+    phase: body.phase,
+    setpoint,
+    hoodFlowM3S: body.hoodFlowM3S ?? null,
+    hoodCorrectionFactor: body.method === "hood" ? (body.hoodCorrectionFactor ?? instrument?.hoodCorrectionFactor ?? 1) : null,
+    hoodDensityCorrected: body.hoodDensityCorrected ?? null,
+    hoodBackPressureCompensated: body.hoodBackPressureCompensated ?? null,
+    velocitiesMS: body.velocitiesMS ?? null,
+    velocityBasis: body.velocityBasis ?? null,
+    effectiveAreaM2: body.method === "velocity_area" ? (body.effectiveAreaM2 ?? terminal.effectiveAreaM2) : null,
+    dryBulbC: body.dryBulbC ?? null,
+    relativeHumidityPct: body.relativeHumidityPct ?? null,
+    barometricPa: body.barometricPa ?? null,
+    controllerFlowM3S,
+    controllerFlowFactor: controllerFlowM3S !== null ? (body.controllerFlowFactor ?? terminal.controllerFlowFactor) : null,
+    damperMarked: body.damperMarked ?? false,
+  };
+}
+
 export interface ProjectBasis {
   altitudeM: number;
   standardDensityKgM3: number;
