@@ -68,6 +68,9 @@ const VIEWPORTS = [
 for (const viewport of VIEWPORTS) {
   test.describe(`on a ${viewport.name} (${viewport.width}×${viewport.height})`, () => {
     test.use({ viewport: { width: viewport.width, height: viewport.height }, hasTouch: viewport.width < 1100 });
+    // Each journey records two or three readings through the screen and checks them with axe and over the
+    // API: about 20–30 s on two cores, too near the default limit.
+    test.slow();
 
     test("a technician records an outlet's initial and final readings with the keyboard only and sees % of design and the verdict", async ({ page, playwright, baseURL }) => {
       const screen = new TerminalsPage(page);
