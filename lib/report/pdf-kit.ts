@@ -46,7 +46,38 @@ export async function embedFonts(doc: PDFDocument): Promise<Fonts> {
   const [regular, medium, semibold, bold] = await Promise.all(
     (["regular", "medium", "semibold", "bold"] as const).map((w) => doc.embedFont(fontFile(w), { subset: true })),
   );
-  return { regular: regular!, medium: medium!, semibold: semibold!, bold: bold! };
+  return { regular: rememberWidths(regular!), medium: rememberWidths(medium!), semibold: rememberWidths(semibold!), bold: rememberWidths(bold!) };
+}
+
+/**
+ * Each width measurement and each drawn string shapes the text with fontkit (substitutions, kerning),
+ * which is most of a report's build time: wrapping measures the same words and lines again and again,
+ * and headers, labels and units repeat on every page. A text's width is its shaped width at size 1
+ * times the size, and its encoding (the glyphs, already added to the subset the first time) does not
+ * change, so the font keeps both per text for the document's life.
+ */
+function rememberWidths(font: PDFFont): PDFFont {
+  const encoded = new Map<string, ReturnType<PDFFont["encodeText"]>>();
+  const encode = font.encodeText.bind(font);
+  font.encodeText = (text: string) => {
+    let hex = encoded.get(text);
+    if (hex === undefined) {
+      hex = encode(text);
+      encoded.set(text, hex);
+    }
+    return hex;
+  };
+  const unitWidths = new Map<string, number>();
+  const measure = font.widthOfTextAtSize.bind(font);
+  font.widthOfTextAtSize = (text: string, size: number) => {
+    let unit = unitWidths.get(text);
+    if (unit === undefined) {
+      unit = measure(text, 1);
+      unitWidths.set(text, unit);
+    }
+    return unit * size;
+  };
+  return font;
 }
 
 // Characters outside the font's latin subset, spelled with ones it has.

@@ -3,9 +3,9 @@
  * when the sources are newer (through the launcher), prints a table, writes bench/results.json, and
  * exits 1 when a budget is missed.
  *
- *   npm run bench -- [--only engine,pages,api] [--load-seconds 20]
+ *   npm run bench -- [--only engine,report,pages,api] [--load-seconds 20]
  *
- * Sections: engine (in this process), pages and browser (the production build on loopback with the
+ * Sections: engine and report (in this process), pages and browser (the production build on loopback with the
  * demo, driven by Debian's Chromium), api (`npm run load` for --load-seconds). Each figure is the median
  * of repeated runs, printed with its range.
  */
@@ -15,11 +15,12 @@ import os from "node:os";
 import path from "node:path";
 import { browserFigures } from "./browser";
 import { engineFigures } from "./engine";
+import { reportFigures } from "./report";
 import { figure, type Figure } from "./figures";
 import { signIn, startAppServer } from "../support/app-server";
 
 const ROOT = path.resolve(import.meta.dirname, "../..");
-const SECTIONS = ["engine", "pages", "api"] as const;
+const SECTIONS = ["engine", "report", "pages", "api"] as const;
 
 function option(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);
@@ -77,6 +78,7 @@ const fmt = (x: number) => (Math.abs(x) >= 100 ? Math.round(x).toLocaleString("e
 async function main() {
   const figures: Figure[] = [];
   if (only.includes("engine")) figures.push(...engineFigures());
+  if (only.includes("report")) figures.push(...(await reportFigures()));
   if (only.includes("pages")) {
     const app = await startAppServer({ timeLimitS: 1800, label: "bench" });
     try {
