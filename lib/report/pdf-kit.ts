@@ -46,7 +46,7 @@ export async function embedFonts(doc: PDFDocument): Promise<Fonts> {
   const [regular, medium, semibold, bold] = await Promise.all(
     (["regular", "medium", "semibold", "bold"] as const).map((w) => doc.embedFont(fontFile(w), { subset: true })),
   );
-  return { regular: rememberWidths(regular!), medium: rememberWidths(medium!), semibold: rememberWidths(semibold!), bold: rememberWidths(bold!) };
+  return { regular: rememberShaping(regular!), medium: rememberShaping(medium!), semibold: rememberShaping(semibold!), bold: rememberShaping(bold!) };
 }
 
 /**
@@ -56,7 +56,7 @@ export async function embedFonts(doc: PDFDocument): Promise<Fonts> {
  * times the size, and its encoding (the glyphs, already added to the subset the first time) does not
  * change, so the font keeps both per text for the document's life.
  */
-function rememberWidths(font: PDFFont): PDFFont {
+function rememberShaping(font: PDFFont): PDFFont {
   const encoded = new Map<string, ReturnType<PDFFont["encodeText"]>>();
   const encode = font.encodeText.bind(font);
   font.encodeText = (text: string) => {
