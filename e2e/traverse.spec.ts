@@ -194,6 +194,8 @@ test.describe("on a portrait tablet", () => {
     const t = (await (await api.post(`/api/v1/projects/${projectId}/traverses`, { data: { sectionId: x11.id, method: "log-linear", air: { dryBulbC: 17, relativeHumidityPct: 50, staticPa: -120 } } })).json()).traverse;
     await page.goto(`/projects/${projectId}/traverses/${t.id}`);
     await expect(page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ })).toBeVisible();
+    // The grid is in the server's HTML before React takes it over: type only once the page is hydrated.
+    await page.waitForLoadState("networkidle");
 
     await goOffline(context);
     await page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ }).focus();
