@@ -3,8 +3,11 @@ import path from "node:path";
 import { PGlite } from "@electric-sql/pglite";
 import { drizzle as drizzlePglite, type PgliteDatabase } from "drizzle-orm/pglite";
 import { drizzle as drizzlePg } from "drizzle-orm/node-postgres";
+import { getTableName, is } from "drizzle-orm";
+import { PgTable } from "drizzle-orm/pg-core";
 import { Pool } from "pg";
 import * as schema from "./schema";
+import { watchPglite, type ReadCache } from "./read-cache";
 import { migrateDatabase, migratePostgres } from "./migrate";
 import { seedDemo } from "./seed/index";
 import { acquireDataDirLock } from "./lock";
@@ -21,8 +24,13 @@ export type DatabaseKind = "pglite" | "postgres";
 export interface DatabaseHandle {
   db: Database;
   kind: DatabaseKind;
+  /** Answers to repeated reads (embedded database only: see db/read-cache.ts). */
+  readCache?: ReadCache;
   close(): Promise<void>;
 }
+
+/** Every table's SQL name, for the read cache's bookkeeping. */
+const TABLE_NAMES = Object.values(schema).flatMap((value) => (is(value, PgTable) ? [getTableName(value)] : []));
 
 export interface OpenOptions {
   /** PostgreSQL connection string; wins over dataDir. */
@@ -55,11 +63,14 @@ export async function openDatabase(options: OpenOptions = {}): Promise<DatabaseH
   const release = inMemory ? () => undefined : acquireDataDirLock(dataDir);
   try {
     const client = new PGlite(dataDir);
+    // AIRTALLY_READ_CACHE=off turns it off (to rule it out when chasing a problem).
+    const readCache = process.env.AIRTALLY_READ_CACHE === "off" ? undefined : watchPglite(client, TABLE_NAMES);
     const db = drizzlePglite({ client, schema });
     await migrateDatabase(db);
     return {
       db,
       kind: "pglite",
+      readCache,
       close: async () => {
         await client.close();
         release();
@@ -102,6 +113,15 @@ export function getDatabaseHandle(): Promise<DatabaseHandle> {
 
 export async function getDb(): Promise<Database> {
   return (await getDatabaseHandle()).db;
+}
+
+/**
+ * `load()`'s answer, remembered under `key` until a table it read is written (embedded database;
+ * with PostgreSQL it always loads). The answer is frozen: callers must not change it.
+ */
+export async function cachedRead<T>(key: string, load: () => Promise<T>): Promise<T> {
+  const handle = await getDatabaseHandle();
+  return handle.readCache ? handle.readCache.read(key, load) : load();
 }
 
 /** Closes the process-wide database if it was opened (clean shutdown). */

@@ -1,10 +1,14 @@
 import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
-import { getDb } from "../client";
+import { cachedRead, getDb } from "../client";
 import { airSystems, ductSections, readings, reviews, terminals, traverses, users } from "../schema";
 
 /** The design side of a project: systems, their duct trees and terminals, in stable order. */
 export async function getProjectDesign({ projectId }: { projectId: string }) {
+  return cachedRead(`design:${projectId}`, () => loadProjectDesign(projectId));
+}
+
+async function loadProjectDesign(projectId: string) {
   const db = await getDb();
   // Three independent queries keyed by the project, issued together: no round trip waits on another.
   const [systems, sectionRows, terminalRows] = await Promise.all([

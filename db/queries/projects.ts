@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
-import { getDb } from "../client";
+import { cachedRead, getDb } from "../client";
 import { airSystems, ductSections, projectMembers, projects, traverses, users, type MemberRole, type Project, type TraverseStatus } from "../schema";
 import { getUserById, type SessionUser } from "./users";
 
@@ -31,36 +31,40 @@ export async function getUserWithProjectAccess({ userId, projectId }: { userId: 
     const user = await getUserById({ id: userId });
     return user ? { user, access: null } : null;
   }
-  const db = await getDb();
-  const [row] = await db
-    .select({
-      id: users.id,
-      email: users.email,
-      name: users.name,
-      isAdmin: users.isAdmin,
-      unitSystem: users.unitSystem,
-      sessionVersion: users.sessionVersion,
-      project: projects,
-      role: projectMembers.role,
-    })
-    .from(users)
-    .leftJoin(projects, eq(projects.id, projectId))
-    .leftJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, users.id)))
-    .where(eq(users.id, userId));
-  if (!row) return null;
-  const { project, role, ...user } = row;
-  return { user, access: project ? { project, role } : null };
+  return cachedRead(`user-project:${userId}:${projectId}`, async () => {
+    const db = await getDb();
+    const [row] = await db
+      .select({
+        id: users.id,
+        email: users.email,
+        name: users.name,
+        isAdmin: users.isAdmin,
+        unitSystem: users.unitSystem,
+        sessionVersion: users.sessionVersion,
+        project: projects,
+        role: projectMembers.role,
+      })
+      .from(users)
+      .leftJoin(projects, eq(projects.id, projectId))
+      .leftJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, users.id)))
+      .where(eq(users.id, userId));
+    if (!row) return null;
+    const { project, role, ...user } = row;
+    return { user, access: project ? { project, role } : null };
+  });
 }
 
 /** The projects a user is a member of, with the role: one indexed lookup (GET /api/auth/me). */
 export async function listMembershipsForUser({ userId }: { userId: string }): Promise<{ projectId: string; role: MemberRole }[]> {
-  const db = await getDb();
-  return db
-    .select({ projectId: projectMembers.projectId, role: projectMembers.role })
-    .from(projectMembers)
-    .innerJoin(projects, eq(projects.id, projectMembers.projectId))
-    .where(eq(projectMembers.userId, userId))
-    .orderBy(asc(projects.name));
+  return cachedRead(`memberships:${userId}`, async () => {
+    const db = await getDb();
+    return db
+      .select({ projectId: projectMembers.projectId, role: projectMembers.role })
+      .from(projectMembers)
+      .innerJoin(projects, eq(projects.id, projectMembers.projectId))
+      .where(eq(projectMembers.userId, userId))
+      .orderBy(asc(projects.name));
+  });
 }
 
 export interface ProjectSummary {
@@ -97,6 +101,10 @@ function sectionsWhoseLatestTraverseIs(status: TraverseStatus) {
  * (role null where they are not a member).
  */
 export async function listProjectsForUser({ userId, isAdmin }: { userId: string; isAdmin: boolean }): Promise<ProjectSummary[]> {
+  return cachedRead(`projects:${userId}:${isAdmin}`, () => loadProjectsForUser(userId, isAdmin));
+}
+
+async function loadProjectsForUser(userId: string, isAdmin: boolean): Promise<ProjectSummary[]> {
   const db = await getDb();
   const membership = and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId));
   const base = db

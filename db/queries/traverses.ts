@@ -125,7 +125,7 @@ export async function saveTraverseReadings({
   /** Every point that has a value or is unreadable; points absent are not read. Null: leave the readings as they are. */
   points: PointValue[] | null;
   values: Partial<typeof traverses.$inferInsert>;
-}): Promise<{ status: "saved"; traverse: Traverse; changes: ReadingChange[] } | { status: "stale" }> {
+}): Promise<{ status: "saved"; traverse: Traverse; changes: ReadingChange[]; rows: Reading[] | null } | { status: "stale" }> {
   const db = await getDb();
   return db.transaction(async (tx) => {
     const [updated] = await tx
@@ -135,6 +135,8 @@ export async function saveTraverseReadings({
       .returning();
     if (!updated) return { status: "stale" as const };
     const changes: ReadingChange[] = [];
+    // The readings as they stand after the save, so the answer needs no second read of them.
+    let rows: Reading[] | null = null;
     if (points) {
       const existing = await tx.select().from(readings).where(eq(readings.traverseId, traverseId));
       const key = (line: number, point: number) => `${line}:${point}`;
@@ -152,16 +154,20 @@ export async function saveTraverseReadings({
         await tx.delete(readings).where(eq(readings.id, gone.id));
         changes.push({ line: gone.line, point: gone.point, before: { value: gone.value, unreadable: gone.unreadable }, after: null });
       }
+      const kept = new Map(existing.filter((r) => !before.has(key(r.line, r.point))).map((r) => [key(r.line, r.point), r]));
       if (upserts.length > 0) {
-        await tx
+        const written = await tx
           .insert(readings)
           .values(upserts)
           .onConflictDoUpdate({
             target: [readings.traverseId, readings.line, readings.point],
             set: { value: sql`excluded.value`, unreadable: sql`excluded.unreadable`, recordedAt: sql`excluded.recorded_at` },
-          });
+          })
+          .returning();
+        for (const r of written) kept.set(key(r.line, r.point), r);
       }
+      rows = [...kept.values()].sort((a, b) => a.line - b.line || a.point - b.point);
     }
-    return { status: "saved" as const, traverse: updated, changes };
+    return { status: "saved" as const, traverse: updated, changes, rows };
   });
 }

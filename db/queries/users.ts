@@ -1,6 +1,6 @@
 import "server-only";
 import { eq, sql } from "drizzle-orm";
-import { getDb } from "../client";
+import { cachedRead, getDb } from "../client";
 import { users } from "../schema";
 
 export interface SessionUser {
@@ -22,10 +22,13 @@ const sessionColumns = {
   sessionVersion: users.sessionVersion,
 };
 
+/** The session's user: asked on every request, so remembered until the users table is written. */
 export async function getUserById({ id }: { id: string }): Promise<SessionUser | null> {
-  const db = await getDb();
-  const [row] = await db.select(sessionColumns).from(users).where(eq(users.id, id));
-  return row ?? null;
+  return cachedRead(`user:${id}`, async () => {
+    const db = await getDb();
+    const [row] = await db.select(sessionColumns).from(users).where(eq(users.id, id));
+    return row ?? null;
+  });
 }
 
 /** The user and password hash for sign-in; e-mail matching ignores case. */

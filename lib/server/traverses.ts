@@ -1,6 +1,6 @@
 import "server-only";
 import { inArray } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { cachedRead, getDb } from "@/db/client";
 import { recordAudit } from "@/db/queries/audit";
 import { getConditions } from "@/db/queries/conditions";
 import { getSectionInProject } from "@/db/queries/design";
@@ -94,8 +94,11 @@ const COLUMN: Record<Slot, "instrumentId" | "probeInstrumentId" | "airInstrument
 async function instrumentsById(ids: readonly (string | null | undefined)[]): Promise<Map<string, Instrument>> {
   const wanted = [...new Set(ids.filter((x): x is string => typeof x === "string"))];
   if (wanted.length === 0) return new Map();
-  const db = await getDb();
-  const rows = await db.select().from(instrumentsTable).where(inArray(instrumentsTable.id, wanted));
+  wanted.sort();
+  const rows = await cachedRead(`instruments:${wanted.join(",")}`, async () => {
+    const db = await getDb();
+    return db.select().from(instrumentsTable).where(inArray(instrumentsTable.id, wanted));
+  });
   return new Map(rows.map((r) => [r.id, r]));
 }
 
@@ -208,9 +211,10 @@ export async function traverseResource(found: TraverseInProject, project: Projec
   const source = engineSourceOf(t, section, project);
   const [instruments, conditions, revisions, decisions] = await Promise.all([
     instrumentsById([t.instrumentId, t.probeInstrumentId, t.airInstrumentId, t.barometerInstrumentId]),
-    t.conditionsId ? getConditions({ id: t.conditionsId }) : Promise.resolve(null),
+    t.conditionsId ? cachedRead(`conditions:${t.conditionsId}`, () => getConditions({ id: t.conditionsId! })) : Promise.resolve(null),
     options.history ? listRevisionsOfSection({ sectionId: section.id }) : Promise.resolve(null),
-    listReviewsOf({ traverseIds: [t.id] }),
+    // Asked again on every save of the grid; they change only when someone reviews.
+    cachedRead(`reviews-of-traverse:${t.id}`, () => listReviewsOf({ traverseIds: [t.id] })),
   ]);
   const last = decisions[0];
   const layout = runCalcCommand("layout", layoutCalcInput(source));
@@ -467,7 +471,7 @@ export async function saveReadings(user: { id: string }, project: Project, trave
       },
     });
   }
-  const resource = await traverseResource({ ...found, traverse: saved.traverse }, project);
+  const resource = await traverseResource({ ...found, traverse: saved.traverse }, project, saved.rows ?? undefined);
   return ok(200, { traverse: resource });
 }
 

@@ -216,6 +216,22 @@ describe("PUT …/traverses/{traverseId}/readings", () => {
     void complete;
   });
 
+  it("answers a save with the traverse exactly as a fresh read gives it: points changed, cleared and marked unreadable", async () => {
+    as("tech@example.test");
+    const { version } = (await get(traverseId)).body.traverse;
+    const grid = X1_GRID.map((row, k) => row.map((v, i) => (k === 1 && i === 7 ? null : k === 0 && i === 4 ? null : i === 2 ? v + 3 : v)));
+    const res = await put(traverseId, { version, readings: grid, unreadable: [[0, 4]] });
+    expect(res.status).toBe(200);
+    // A read also lists the section's revisions; a save's answer leaves them out.
+    const { revisions, ...fresh } = (await get(traverseId)).body.traverse;
+    expect(revisions.length).toBeGreaterThan(0);
+    expect(res.body.traverse).toEqual(fresh);
+    expect(fresh.readings).toEqual(grid);
+    expect(fresh.result.counts).toEqual({ points: 16, read: 14, unreadable: 1, notRead: 1 });
+    // Back to the full grid for the tests that follow.
+    expect((await put(traverseId, { version: fresh.version, readings: X1_GRID })).status).toBe(200);
+  });
+
   it("answers a stale version with 409 and the current traverse, and changes nothing", async () => {
     as("tech@example.test");
     const before = (await get(traverseId)).body.traverse;

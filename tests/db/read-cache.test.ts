@@ -1,0 +1,117 @@
+import { PGlite } from "@electric-sql/pglite";
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { statementEffect, watchPglite, type ReadCache } from "@/db/read-cache";
+
+describe("statementEffect", () => {
+  it("tells reads, table writes, neutral statements and everything else apart", () => {
+    expect(statementEffect(`select "id" from "users" where "id" = $1`)).toEqual({ kind: "read" });
+    expect(statementEffect(`  -- note\n/* x */ SELECT 1`)).toEqual({ kind: "read" });
+    expect(statementEffect(`insert into "readings" ("id") values ($1) on conflict do nothing`)).toEqual({ kind: "write", table: "readings" });
+    expect(statementEffect(`update "users" set "session_version" = "session_version" + 1`)).toEqual({ kind: "write", table: "users" });
+    expect(statementEffect(`UPDATE public.users SET name = 'x'`)).toEqual({ kind: "write", table: "users" });
+    for (const neutral of ["begin", "COMMIT", "rollback", "savepoint sp1", "release savepoint sp1", "set search_path to public"]) {
+      expect(statementEffect(neutral)).toEqual({ kind: "none" });
+    }
+    // Cascades, hidden statements and state-changing functions: assume everything was written.
+    expect(statementEffect(`delete from "projects" where "id" = $1`)).toEqual({ kind: "write-all" });
+    expect(statementEffect(`with moved as (delete from a returning *) insert into b select * from moved`)).toEqual({ kind: "write-all" });
+    expect(statementEffect(`insert into a values (1); delete from b`)).toEqual({ kind: "write-all" });
+    expect(statementEffect(`select nextval('s')`)).toEqual({ kind: "write-all" });
+    expect(statementEffect(`truncate a`)).toEqual({ kind: "write-all" });
+    expect(statementEffect(`alter table a add column b int`)).toEqual({ kind: "write-all" });
+  });
+});
+
+describe("ReadCache on an embedded database", () => {
+  let client: PGlite;
+  let cache: ReadCache;
+  let loads: number;
+
+  // One database for the file (starting one takes seconds); each test starts from the same rows.
+  beforeAll(async () => {
+    client = new PGlite("memory://");
+    await client.exec(`create table people (id int primary key, name text); create table pets (id int primary key, owner int references people(id) on delete cascade, name text);`);
+    cache = watchPglite(client, ["people", "pets"]);
+  });
+  beforeEach(async () => {
+    await client.exec(`delete from pets; delete from people; insert into people values (1, 'Ada'); insert into pets values (1, 1, 'Rex');`);
+    loads = 0;
+  });
+  afterAll(() => client.close());
+
+  const names = () =>
+    cache.read("names", async () => {
+      loads += 1;
+      return (await client.query<{ name: string }>(`select "name" from "people" order by "id"`)).rows.map((r) => r.name);
+    });
+
+  it("answers a repeated read from memory until a table it read is written", async () => {
+    const before = cache.stats();
+    expect(await names()).toEqual(["Ada"]);
+    expect(await names()).toEqual(["Ada"]);
+    expect(loads).toBe(1);
+    await client.query(`insert into "pets" values (2, 1, 'Tib')`); // another table: still fresh
+    expect(await names()).toEqual(["Ada"]);
+    expect(loads).toBe(1);
+    await client.query(`update "people" set "name" = 'Ada L.' where "id" = 1`);
+    expect(await names()).toEqual(["Ada L."]);
+    expect(loads).toBe(2);
+    const after = cache.stats();
+    expect({ hits: after.hits - before.hits, misses: after.misses - before.misses }).toEqual({ hits: 2, misses: 2 });
+  });
+
+  it("sees writes made inside transactions and multi-statement scripts", async () => {
+    await names();
+    await client.transaction(async (tx) => {
+      await tx.query(`insert into "people" values (2, 'Bo')`);
+    });
+    expect(await names()).toEqual(["Ada", "Bo"]);
+    await client.exec(`insert into people values (3, 'Cy'); select 1;`);
+    expect(await names()).toEqual(["Ada", "Bo", "Cy"]);
+    expect(loads).toBe(3);
+  });
+
+  it("treats a delete as a write to every table (foreign keys cascade)", async () => {
+    const pets = () => cache.read("pets", async () => (await client.query<{ name: string }>(`select "name" from "pets"`)).rows.map((r) => r.name));
+    expect(await pets()).toEqual(["Rex"]);
+    await client.query(`delete from "people" where "id" = 1`);
+    expect(await pets()).toEqual([]);
+  });
+
+  it("does not keep an answer when its table is written while it is being read", async () => {
+    const first = await cache.read("racy", async () => {
+      const before = (await client.query<{ name: string }>(`select "name" from "people"`)).rows.map((r) => r.name);
+      await client.query(`insert into "people" values (2, 'Bo')`); // lands after the read, before it is kept
+      return before;
+    });
+    expect(first).toEqual(["Ada"]);
+    const second = await cache.read("racy", async () => (await client.query<{ name: string }>(`select "name" from "people" order by "id"`)).rows.map((r) => r.name));
+    expect(second).toEqual(["Ada", "Bo"]);
+  });
+
+  it("loads once for concurrent readers of the same key", async () => {
+    const [a, b, c] = await Promise.all([names(), names(), names()]);
+    expect(a).toEqual(["Ada"]);
+    expect(b).toBe(a);
+    expect(c).toBe(a);
+    expect(loads).toBe(1);
+  });
+
+  it("hands out frozen answers, so one caller cannot change another's", async () => {
+    const list = await names();
+    expect(Object.isFrozen(list)).toBe(true);
+    expect(() => (list as string[]).push("Eve")).toThrow(TypeError);
+  });
+
+  it("passes the tables of a nested read on to the read that contains it", async () => {
+    const outer = () => cache.read("outer", async () => ({ names: await names(), at: loads }));
+    await outer();
+    await client.query(`insert into "people" values (2, 'Bo')`);
+    expect((await outer()).names).toEqual(["Ada", "Bo"]);
+  });
+
+  it("keeps a bounded number of answers", async () => {
+    for (let i = 0; i < 2_100; i++) await cache.read(`bounded-${i}`, async () => i);
+    expect(cache.stats().entries).toBe(2_000);
+  });
+});
