@@ -1,23 +1,28 @@
 /**
  * Vector graphics of the report: the traverse cross-section (the same geometry the traverse screen
  * draws, lib/traverse/drawing.ts), the velocity profile along each traverse line, and the QR code of
- * the verification link, drawn module by module as rectangles so it stays sharp at any zoom.
+ * the verification link, drawn module by module as rectangles so it stays sharp at any zoom (once per
+ * document, as a form every page places).
  */
 import QRCode from "qrcode";
-import { rgb, type PDFPage } from "pdf-lib";
+import { drawObject, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingRgbColor, translate, type PDFDocument, type PDFPage, type PDFRef } from "pdf-lib";
 import { crossSectionDrawing } from "@/lib/traverse/drawing";
 import { formatQuantity, toDisplay, displayUnit, type UnitSystem } from "@/lib/units";
 import type { ReportTraverse } from "./model";
 import type { Fonts } from "./fonts";
 import { ACCENT, INK, RULE, SOFT } from "./pdf-kit";
 
-/** Draws the QR code of `text` with its top-left corner at (x, yTop), `size` points square (quiet zone included). */
-export function drawQr(page: PDFPage, text: string, x: number, yTop: number, size: number): void {
+/**
+ * The QR code of `text`, `size` points square (quiet zone included), as a form drawn once per document
+ * and placed on every page: the footer's code is the same on each, and hundreds of copies of its
+ * modules would make up most of a long report's drawing operators.
+ */
+export function embedQr(doc: PDFDocument, text: string, size: number): PDFRef {
   const qr = QRCode.create(text, { errorCorrectionLevel: "M" });
   const n = qr.modules.size;
   // Four modules of quiet zone on every side (ISO/IEC 18004 §5.3.8).
   const cell = size / (n + 8);
-  page.drawRectangle({ x, y: yTop - size, width: size, height: size, color: rgb(1, 1, 1) });
+  const ops = [setFillingRgbColor(1, 1, 1), rectangle(0, 0, size, size), fill(), setFillingRgbColor(0, 0, 0)];
   for (let r = 0; r < n; r++) {
     let c = 0;
     while (c < n) {
@@ -27,10 +32,18 @@ export function drawQr(page: PDFPage, text: string, x: number, yTop: number, siz
       }
       const start = c;
       while (c < n && qr.modules.get(r, c)) c++;
-      // A hair of overlap keeps viewers from showing seams between neighbouring modules.
-      page.drawRectangle({ x: x + (start + 4) * cell, y: yTop - (r + 5) * cell, width: (c - start) * cell + 0.05, height: cell + 0.05, color: rgb(0, 0, 0) });
+      // A hair of overlap keeps viewers from showing seams between neighbouring modules. Each run is
+      // filled on its own, as a plain rectangle, so that viewers snap its edges to the pixel grid.
+      ops.push(rectangle((start + 4) * cell, size - (r + 5) * cell, (c - start) * cell + 0.05, cell + 0.05), fill());
     }
   }
+  return doc.context.register(doc.context.formXObject(ops, { BBox: [0, 0, size, size] }));
+}
+
+/** Places a form made by `embedQr` with its top-left corner at (x, yTop). */
+export function drawQr(page: PDFPage, form: PDFRef, x: number, yTop: number, size: number): void {
+  const name = page.node.newXObject("QR", form);
+  page.pushOperators(pushGraphicsState(), translate(x, yTop - size), drawObject(name), popGraphicsState());
 }
 
 /** The duct cross-section with its ports, lines and numbered points, fitted into a `box`-point square. */
