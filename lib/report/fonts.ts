@@ -5,7 +5,8 @@
 import fs from "node:fs";
 import path from "node:path";
 import fontkit from "@pdf-lib/fontkit";
-import { drawText, type PDFDocument, type PDFFont, type PDFHexString, type PDFName, type PDFPage, type RGB, degrees } from "pdf-lib";
+import { degrees, drawText, type PDFDocument, type PDFFont, type PDFHexString, type PDFName, type PDFPage, type RGB } from "pdf-lib";
+import { sfntFromWoff } from "./woff";
 
 // Characters outside the font's latin subset, spelled with ones it has.
 const SUBSTITUTES: Record<string, string> = {
@@ -114,10 +115,21 @@ function fontFile(weight: Weight): Buffer {
   }
 }
 
+/** Each weight's font unpacked from its .woff, read once per process (fontkit and pdf-lib only read it). */
+const unpacked = new Map<Weight, Uint8Array>();
+function fontBytes(weight: Weight): Uint8Array {
+  let bytes = unpacked.get(weight);
+  if (bytes === undefined) {
+    bytes = sfntFromWoff(fontFile(weight));
+    unpacked.set(weight, bytes);
+  }
+  return bytes;
+}
+
 export async function embedFonts(doc: PDFDocument): Promise<Fonts> {
   doc.registerFontkit(fontkit);
   const [regular, medium, semibold, bold] = await Promise.all(
-    (["regular", "medium", "semibold", "bold"] as const).map(async (w) => new ReportFont(await doc.embedFont(fontFile(w), { subset: true }))),
+    (["regular", "medium", "semibold", "bold"] as const).map(async (w) => new ReportFont(await doc.embedFont(fontBytes(w), { subset: true }))),
   );
   return { regular: regular!, medium: medium!, semibold: semibold!, bold: bold! };
 }
