@@ -4,7 +4,8 @@
  * cross the bottom margin. Every wrapped string goes through the font's `fit`, so a character the
  * embedded font lacks is written in plain letters instead of an empty box.
  */
-import { rgb, type PDFDocument, type PDFPage, type RGB } from "pdf-lib";
+import zlib from "node:zlib";
+import { PDFArray, PDFContentStream, PDFName, PDFRawStream, PDFRef, rgb, type PDFDocument, type PDFPage, type RGB } from "pdf-lib";
 import type { Fonts, ReportFont, Weight } from "./fonts";
 
 export type { Fonts, Weight } from "./fonts";
@@ -16,6 +17,26 @@ export const FAINT = rgb(0.95, 0.96, 0.97);
 /** The one accent, for headings and the marks that matter. */
 export const ACCENT = rgb(0.05, 0.38, 0.4);
 export const WARN = rgb(0.62, 0.22, 0.1);
+
+/**
+ * Compresses every page's drawing operators with Node's zlib instead of leaving them to pdf-lib, whose
+ * JavaScript deflate took a fifth of a long report's build time. The same Flate compression at the same
+ * (default) level: the pages draw exactly as before. Call it once all drawing is done, just before saving.
+ */
+export function deflatePageContents(doc: PDFDocument): void {
+  const { context } = doc;
+  for (const page of doc.getPages()) {
+    const contents = page.node.Contents();
+    const refs = contents instanceof PDFArray ? contents.asArray() : [];
+    for (const ref of refs) {
+      if (!(ref instanceof PDFRef)) continue;
+      const stream = context.lookup(ref);
+      if (!(stream instanceof PDFContentStream)) continue;
+      const deflated = zlib.deflateSync(stream.getUnencodedContents());
+      context.assign(ref, PDFRawStream.of(context.obj({ Filter: PDFName.of("FlateDecode") }), new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength)));
+    }
+  }
+}
 
 /** Breaks text into lines no wider than `width` (long words are cut where they must be). */
 export function wrap(font: ReportFont, size: number, text: string, width: number): string[] {

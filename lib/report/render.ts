@@ -12,7 +12,7 @@ import { SAFETY_CAUTIONS, SAFETY_FOOTNOTE } from "@/lib/safety/cautions";
 import { drawCrossSection, drawProfileChart, drawQr, embedQr } from "./graphics";
 import type { ItemStatus, ReportModel, ReportTraverse, SummaryRow } from "./model";
 import { embedFonts } from "./fonts";
-import { ACCENT, Flow, geometryFor, INK, RULE, SOFT, WARN, wrap, type Cell } from "./pdf-kit";
+import { ACCENT, deflatePageContents, Flow, geometryFor, INK, RULE, SOFT, WARN, wrap, type Cell } from "./pdf-kit";
 
 export const DRAFT_MARK = "Draft — not issued";
 export const AIR_SIDE_NOTE = "This report covers the air side only. Hydronic balancing, where the project has it, is reported separately.";
@@ -413,6 +413,7 @@ export async function renderReport(model: ReportModel, options: RenderOptions = 
   doc.setProducer("Airtally");
   doc.setCreationDate(date);
   doc.setModificationDate(date);
+  deflatePageContents(doc);
   return doc.save();
 }
 
