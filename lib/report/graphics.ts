@@ -1,23 +1,29 @@
 /**
  * Vector graphics of the report: the traverse cross-section (the same geometry the traverse screen
  * draws, lib/traverse/drawing.ts), the velocity profile along each traverse line, and the QR code of
- * the verification link, drawn module by module as rectangles so it stays sharp at any zoom (once per
- * document, as a form every page places).
+ * the verification link, drawn module by module as rectangles so it stays sharp at any zoom. Shapes
+ * that recur (the QR code, markers, points) are forms, drawn once per document and placed where needed.
  */
 import QRCode from "qrcode";
-import { drawObject, fill, popGraphicsState, pushGraphicsState, rectangle, rgb, setFillingRgbColor, translate, type PDFDocument, type PDFPage, type PDFRef } from "pdf-lib";
+import { degrees, drawEllipse, drawLine, drawRectangle, drawSvgPath, fill, rectangle, rgb, setFillingRgbColor, type PDFOperator, type PDFPage } from "pdf-lib";
 import { crossSectionDrawing } from "@/lib/traverse/drawing";
 import { formatQuantity, toDisplay, displayUnit, type UnitSystem } from "@/lib/units";
 import type { ReportTraverse } from "./model";
 import type { Fonts } from "./fonts";
+import { formFor, placeForm } from "./forms";
 import { ACCENT, INK, RULE, SOFT } from "./pdf-kit";
 
 /**
- * The QR code of `text`, `size` points square (quiet zone included), as a form drawn once per document
- * and placed on every page: the footer's code is the same on each, and hundreds of copies of its
- * modules would make up most of a long report's drawing operators.
+ * Draws the QR code of `text` with its top-left corner at (x, yTop), `size` points square (quiet zone
+ * included). The code is the same on every page: it is made once per document, as a form
+ * (lib/report/forms.ts), since hundreds of copies of its modules would make up most of a long report's
+ * drawing operators.
  */
-export function embedQr(doc: PDFDocument, text: string, size: number): PDFRef {
+export function drawQr(page: PDFPage, text: string, x: number, yTop: number, size: number): void {
+  placeForm(page, formFor(page.doc, `qr ${size} ${text}`, [0, 0, size, size], () => qrOperators(text, size)), x, yTop - size);
+}
+
+function qrOperators(text: string, size: number): PDFOperator[] {
   const qr = QRCode.create(text, { errorCorrectionLevel: "M" });
   const n = qr.modules.size;
   // Four modules of quiet zone on every side (ISO/IEC 18004 §5.3.8).
@@ -37,13 +43,7 @@ export function embedQr(doc: PDFDocument, text: string, size: number): PDFRef {
       ops.push(rectangle((start + 4) * cell, size - (r + 5) * cell, (c - start) * cell + 0.05, cell + 0.05), fill());
     }
   }
-  return doc.context.register(doc.context.formXObject(ops, { BBox: [0, 0, size, size] }));
-}
-
-/** Places a form made by `embedQr` with its top-left corner at (x, yTop). */
-export function drawQr(page: PDFPage, form: PDFRef, x: number, yTop: number, size: number): void {
-  const name = page.node.newXObject("QR", form);
-  page.pushOperators(pushGraphicsState(), translate(x, yTop - size), drawObject(name), popGraphicsState());
+  return ops;
 }
 
 /** The duct cross-section with its ports, lines and numbered points, fitted into a `box`-point square. */
@@ -70,7 +70,11 @@ export function drawCrossSection(page: PDFPage, fonts: Fonts, t: ReportTraverse,
   for (const p of drawing.points) {
     const cx = X(p.x);
     const cy = Y(p.y);
-    page.drawCircle({ x: cx, y: cy, size: radius, color: rgb(1, 1, 1), borderColor: p.beyondReach ? rgb(0.62, 0.22, 0.1) : INK, borderWidth: 0.7 });
+    // Every point of a traverse is the same circle: one form, placed at each point.
+    const point = formFor(page.doc, `point ${radius} ${p.beyondReach}`, [-radius - 1, -radius - 1, radius + 1, radius + 1], () =>
+      drawEllipse({ x: 0, y: 0, xScale: radius, yScale: radius, color: rgb(1, 1, 1), borderColor: p.beyondReach ? rgb(0.62, 0.22, 0.1) : INK, borderWidth: 0.7 }),
+    );
+    placeForm(page, point, cx, cy);
     if (labelled) {
       const label = String(p.point + 1);
       const size = Math.min(6, radius * 1.15);
@@ -90,24 +94,28 @@ function niceStep(range: number, ticks: number): number {
 const MARKERS = ["circle", "square", "triangle", "diamond", "cross"] as const;
 const DASHES: (number[] | undefined)[] = [undefined, [4, 2], [1.5, 1.5], [6, 2, 1.5, 2], [3, 3]];
 
+/** A marker of `kind` and half-size `s` centred on (x, y): each kind and size is one form, placed at every point. */
 function marker(page: PDFPage, kind: (typeof MARKERS)[number], x: number, y: number, s: number) {
+  const reach = 2 * s + 1;
+  placeForm(page, formFor(page.doc, `marker ${kind} ${s}`, [-reach, -reach, reach, reach], () => markerOperators(kind, s)), x, y);
+}
+
+function markerOperators(kind: (typeof MARKERS)[number], s: number): PDFOperator[] {
+  const none = degrees(0);
   switch (kind) {
     case "circle":
-      page.drawCircle({ x, y, size: s, color: INK });
-      break;
+      return drawEllipse({ x: 0, y: 0, xScale: s, yScale: s, color: INK, borderColor: undefined, borderWidth: 0 });
     case "square":
-      page.drawRectangle({ x: x - s, y: y - s, width: 2 * s, height: 2 * s, color: INK });
-      break;
+      return drawRectangle({ x: -s, y: -s, width: 2 * s, height: 2 * s, color: INK, borderColor: undefined, borderWidth: 0, rotate: none, xSkew: none, ySkew: none });
     case "triangle":
-      page.drawSvgPath(`M 0 ${-s * 1.2} L ${s * 1.1} ${s * 0.8} L ${-s * 1.1} ${s * 0.8} Z`, { x, y, color: INK });
-      break;
+      return drawSvgPath(`M 0 ${-s * 1.2} L ${s * 1.1} ${s * 0.8} L ${-s * 1.1} ${s * 0.8} Z`, { x: 0, y: 0, scale: undefined, rotate: none, color: INK, borderColor: undefined, borderWidth: 0 });
     case "diamond":
-      page.drawSvgPath(`M 0 ${-s * 1.3} L ${s * 1.1} 0 L 0 ${s * 1.3} L ${-s * 1.1} 0 Z`, { x, y, color: INK });
-      break;
+      return drawSvgPath(`M 0 ${-s * 1.3} L ${s * 1.1} 0 L 0 ${s * 1.3} L ${-s * 1.1} 0 Z`, { x: 0, y: 0, scale: undefined, rotate: none, color: INK, borderColor: undefined, borderWidth: 0 });
     case "cross":
-      page.drawLine({ start: { x: x - s, y: y - s }, end: { x: x + s, y: y + s }, thickness: 1, color: INK });
-      page.drawLine({ start: { x: x - s, y: y + s }, end: { x: x + s, y: y - s }, thickness: 1, color: INK });
-      break;
+      return [
+        ...drawLine({ start: { x: -s, y: -s }, end: { x: s, y: s }, thickness: 1, color: INK }),
+        ...drawLine({ start: { x: -s, y: s }, end: { x: s, y: -s }, thickness: 1, color: INK }),
+      ];
   }
 }
 

@@ -6,10 +6,10 @@
  * the running header, "n of N", the verification link and its QR code; a draft is marked on every
  * page and carries no verification code.
  */
-import { degrees, PDFDocument, rgb, type PDFRef } from "pdf-lib";
+import { degrees, PDFDocument, rgb } from "pdf-lib";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { SAFETY_CAUTIONS, SAFETY_FOOTNOTE } from "@/lib/safety/cautions";
-import { drawCrossSection, drawProfileChart, drawQr, embedQr } from "./graphics";
+import { drawCrossSection, drawProfileChart, drawQr } from "./graphics";
 import type { ItemStatus, ReportModel, ReportTraverse, SummaryRow } from "./model";
 import { embedFonts } from "./fonts";
 import { ACCENT, deflatePageContents, Flow, geometryFor, INK, RULE, SOFT, WARN, wrap, type Cell } from "./pdf-kit";
@@ -20,9 +20,6 @@ export const REVIEW_STATEMENT =
   "The results in this report are for the engineer of record's review. They defer to local codes and licensed practice; nothing here replaces the judgement of the licensed professionals responsible for the building.";
 const SIGNATURE_LIMITS =
   "The server's digital signature proves that this file is byte for byte the one this Airtally deployment issued, and who approved it in the app. It is not a professional engineer's seal; seal rules are local. The TAB supervisor's certification is a person's statement, separate from the file's signature.";
-
-/** The footer's QR code of the verification link, in points. */
-const QR_SIZE = 46;
 
 const STATUS_WORDS: Record<ItemStatus, string> = {
   approved: "Approved",
@@ -403,8 +400,7 @@ export async function renderReport(model: ReportModel, options: RenderOptions = 
   // ---- Contents, then the furniture of every page ------------------------------------------------
   drawContents(flow, contentsPageIndex, contents);
   const total = flow.pages.length;
-  const qr = embedQr(doc, model.verifyUrl, QR_SIZE);
-  flow.pages.forEach((page, i) => decoratePage(flow, page, i + 1, total, model, qr));
+  flow.pages.forEach((page, i) => decoratePage(flow, page, i + 1, total, model));
 
   const date = options.documentDate ?? new Date(model.generatedAt);
   doc.setTitle(`${title} — ${model.project.name}${model.revision ? `, revision ${model.revision}` : ""}`);
@@ -575,7 +571,7 @@ function drawContents(flow: Flow, pageIndex: number, contents: ContentsEntry[]):
   }
 }
 
-function decoratePage(flow: Flow, page: ReturnType<Flow["newPage"]>, n: number, total: number, model: ReportModel, qrForm: PDFRef): void {
+function decoratePage(flow: Flow, page: ReturnType<Flow["newPage"]>, n: number, total: number, model: ReportModel): void {
   const { fonts, geo } = flow;
   const headY = geo.height - 40;
   const left = fonts.semibold.fit(`Closeout report · ${model.project.name}`);
@@ -586,10 +582,10 @@ function decoratePage(flow: Flow, page: ReturnType<Flow["newPage"]>, n: number, 
   rf.draw(page, rightText, { x: geo.right - rf.width(rightText, 8.5), y: headY, size: 8.5, color: model.kind === "draft" ? WARN : SOFT });
   page.drawLine({ start: { x: geo.left, y: headY - 7 }, end: { x: geo.right, y: headY - 7 }, thickness: 0.5, color: RULE });
 
-  const qr = QR_SIZE;
+  const qr = 46;
   const footTop = geo.bottom - 14;
   page.drawLine({ start: { x: geo.left, y: footTop }, end: { x: geo.right, y: footTop }, thickness: 0.5, color: RULE });
-  drawQr(page, qrForm, geo.right - qr, footTop - 6, qr);
+  drawQr(page, model.verifyUrl, geo.right - qr, footTop - 6, qr);
   const textWidth = geo.right - geo.left - qr - 12;
   const lines =
     model.kind === "draft"
