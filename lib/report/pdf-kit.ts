@@ -1,14 +1,12 @@
 /**
- * A small page-flow layer over pdf-lib for the closeout report: Barlow in four weights, wrapped text,
- * paginating tables whose header repeats, and a cursor that starts a new page before anything would
- * cross the bottom margin. Every wrapped string goes through the font's `fit`, so a character the
- * embedded font lacks is written in plain letters instead of an empty box.
+ * A small page-flow layer over pdf-lib for the closeout report, in its fonts (lib/report/fonts.ts):
+ * wrapped text, paginating tables whose header repeats, and a cursor that starts a new page before
+ * anything would cross the bottom margin. Every wrapped string goes through the font's `fit`, so a
+ * character the embedded font lacks is written in plain letters instead of an empty box.
  */
 import zlib from "node:zlib";
 import { PDFArray, PDFContentStream, PDFName, PDFRawStream, PDFRef, rgb, type PDFDocument, type PDFPage, type RGB } from "pdf-lib";
 import type { Fonts, ReportFont, Weight } from "./fonts";
-
-export type { Fonts, Weight } from "./fonts";
 
 export const INK = rgb(0.11, 0.14, 0.19);
 export const SOFT = rgb(0.36, 0.4, 0.45);
@@ -20,8 +18,8 @@ export const WARN = rgb(0.62, 0.22, 0.1);
 
 /**
  * Compresses every page's drawing operators with Node's zlib instead of leaving them to pdf-lib, whose
- * JavaScript deflate took a fifth of a long report's build time. The same Flate compression at the same
- * (default) level: the pages draw exactly as before. Call it once all drawing is done, just before saving.
+ * JavaScript deflate was most of the time a long report took to save. The same Flate compression at the
+ * same (default) level: the pages draw exactly as before. Call it once all drawing is done, just before saving.
  */
 export function deflatePageContents(doc: PDFDocument): void {
   const { context } = doc;
