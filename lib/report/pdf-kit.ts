@@ -1,13 +1,12 @@
 /**
- * A small page-flow layer over pdf-lib for the closeout report: Barlow in four weights, wrapped text,
- * paginating tables whose header repeats, and a cursor that starts a new page before anything would
- * cross the bottom margin. Every string goes through `fit` so a character the embedded font lacks
- * is written in plain letters instead of an empty box.
+ * A small page-flow layer over pdf-lib for the closeout report, in its fonts (lib/report/fonts.ts):
+ * wrapped text, paginating tables whose header repeats, and a cursor that starts a new page before
+ * anything would cross the bottom margin. Every wrapped string goes through the font's `fit`, so a
+ * character the embedded font lacks is written in plain letters instead of an empty box.
  */
-import fs from "node:fs";
-import path from "node:path";
-import fontkit from "@pdf-lib/fontkit";
-import { PDFDocument, rgb, type PDFFont, type PDFPage, type RGB } from "pdf-lib";
+import zlib from "node:zlib";
+import { PDFArray, PDFContentStream, PDFName, PDFRawStream, PDFRef, rgb, type PDFDocument, type PDFPage, type RGB } from "pdf-lib";
+import type { Fonts, ReportFont, Weight } from "./fonts";
 
 export const INK = rgb(0.11, 0.14, 0.19);
 export const SOFT = rgb(0.36, 0.4, 0.45);
@@ -17,121 +16,43 @@ export const FAINT = rgb(0.95, 0.96, 0.97);
 export const ACCENT = rgb(0.05, 0.38, 0.4);
 export const WARN = rgb(0.62, 0.22, 0.1);
 
-export interface Fonts {
-  regular: PDFFont;
-  medium: PDFFont;
-  semibold: PDFFont;
-  bold: PDFFont;
-}
-export type Weight = keyof Fonts;
-
-// Fontsource's latin .woff files embed and subset cleanly through fontkit (their .woff2 do not).
-// Literal path segments keep the bundler from tracing the whole folder.
-function fontFile(weight: Weight): Buffer {
-  const dir = path.join(process.cwd(), "fonts");
-  switch (weight) {
-    case "regular":
-      return fs.readFileSync(path.join(dir, "barlow-latin-400-normal.woff"));
-    case "medium":
-      return fs.readFileSync(path.join(dir, "barlow-latin-500-normal.woff"));
-    case "semibold":
-      return fs.readFileSync(path.join(dir, "barlow-latin-600-normal.woff"));
-    case "bold":
-      return fs.readFileSync(path.join(dir, "barlow-latin-700-normal.woff"));
-  }
-}
-
-export async function embedFonts(doc: PDFDocument): Promise<Fonts> {
-  doc.registerFontkit(fontkit);
-  const [regular, medium, semibold, bold] = await Promise.all(
-    (["regular", "medium", "semibold", "bold"] as const).map((w) => doc.embedFont(fontFile(w), { subset: true })),
-  );
-  return { regular: rememberShaping(regular!), medium: rememberShaping(medium!), semibold: rememberShaping(semibold!), bold: rememberShaping(bold!) };
-}
-
 /**
- * Each width measurement and each drawn string shapes the text with fontkit (substitutions, kerning),
- * which is most of a report's build time: wrapping measures the same words and lines again and again,
- * and headers, labels and units repeat on every page. A text's width is its shaped width at size 1
- * times the size, and its encoding (the glyphs, already added to the subset the first time) does not
- * change, so the font keeps both per text for the document's life.
+ * Compresses every page's drawing operators with Node's zlib instead of leaving them to pdf-lib, whose
+ * JavaScript deflate was most of the time a long report took to save. The same Flate compression at the
+ * same (default) level: the pages draw exactly as before. Call it once all drawing is done, just before saving.
  */
-function rememberShaping(font: PDFFont): PDFFont {
-  const encoded = new Map<string, ReturnType<PDFFont["encodeText"]>>();
-  const encode = font.encodeText.bind(font);
-  font.encodeText = (text: string) => {
-    let hex = encoded.get(text);
-    if (hex === undefined) {
-      hex = encode(text);
-      encoded.set(text, hex);
+export function deflatePageContents(doc: PDFDocument): void {
+  const { context } = doc;
+  for (const page of doc.getPages()) {
+    const contents = page.node.Contents();
+    const refs = contents instanceof PDFArray ? contents.asArray() : [];
+    for (const ref of refs) {
+      if (!(ref instanceof PDFRef)) continue;
+      const stream = context.lookup(ref);
+      if (!(stream instanceof PDFContentStream)) continue;
+      const deflated = zlib.deflateSync(stream.getUnencodedContents());
+      context.assign(ref, PDFRawStream.of(context.obj({ Filter: PDFName.of("FlateDecode") }), new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength)));
     }
-    return hex;
-  };
-  const unitWidths = new Map<string, number>();
-  const measure = font.widthOfTextAtSize.bind(font);
-  font.widthOfTextAtSize = (text: string, size: number) => {
-    let unit = unitWidths.get(text);
-    if (unit === undefined) {
-      unit = measure(text, 1);
-      unitWidths.set(text, unit);
-    }
-    return unit * size;
-  };
-  return font;
-}
-
-// Characters outside the font's latin subset, spelled with ones it has.
-const SUBSTITUTES: Record<string, string> = {
-  "≤": "<=",
-  "≥": ">=",
-  "→": "->",
-  "←": "<-",
-  "≈": "~",
-  "√": "sqrt",
-  "✓": "yes",
-  "✗": "no",
-  "Δ": "delta ",
-  "ρ": "rho",
-  "•": "·",
-  "\t": " ",
-};
-
-const charsets = new WeakMap<PDFFont, Set<number>>();
-
-/** The text with every character the font cannot draw replaced (substitute, else "?"); line breaks become spaces. */
-export function fit(font: PDFFont, text: string): string {
-  let set = charsets.get(font);
-  if (!set) {
-    set = new Set(font.getCharacterSet());
-    charsets.set(font, set);
   }
-  let out = "";
-  for (const ch of text.replace(/[\r\n]+/g, " ")) {
-    const cp = ch.codePointAt(0)!;
-    if (set.has(cp)) out += ch;
-    else if (SUBSTITUTES[ch] !== undefined) out += SUBSTITUTES[ch];
-    else out += "?";
-  }
-  return out;
 }
 
 /** Breaks text into lines no wider than `width` (long words are cut where they must be). */
-export function wrap(font: PDFFont, size: number, text: string, width: number): string[] {
+export function wrap(font: ReportFont, size: number, text: string, width: number): string[] {
   const lines: string[] = [];
   for (const para of text.split(/\n/)) {
-    const words = fit(font, para).split(/ +/).filter((w) => w !== "");
+    const words = font.fit(para).split(/ +/).filter((w) => w !== "");
     let line = "";
     for (let word of words) {
       const candidate = line ? `${line} ${word}` : word;
-      if (font.widthOfTextAtSize(candidate, size) <= width) {
+      if (font.width(candidate, size) <= width) {
         line = candidate;
         continue;
       }
       if (line) lines.push(line);
       line = "";
-      while (font.widthOfTextAtSize(word, size) > width && word.length > 1) {
+      while (font.width(word, size) > width && word.length > 1) {
         let cut = word.length - 1;
-        while (cut > 1 && font.widthOfTextAtSize(word.slice(0, cut), size) > width) cut--;
+        while (cut > 1 && font.width(word.slice(0, cut), size) > width) cut--;
         lines.push(word.slice(0, cut));
         word = word.slice(cut);
       }
@@ -230,9 +151,9 @@ export class Flow {
     let used = 0;
     for (const line of wrap(font, size, text, width)) {
       this.ensure(lh);
-      const w = font.widthOfTextAtSize(line, size);
+      const w = font.width(line, size);
       const dx = options.align === "right" ? width - w : options.align === "center" ? (width - w) / 2 : 0;
-      this.page.drawText(line, { x: x + dx, y: this.y - size, size, font, color: options.color ?? INK });
+      font.draw(this.page, line, { x: x + dx, y: this.y - size, size, color: options.color ?? INK });
       this.y -= lh;
       used += lh;
     }
@@ -268,10 +189,10 @@ export class Flow {
       row.forEach(([label, value], c) => {
         const x = this.geo.left + c * (colWidth + gap);
         wrap(this.fonts.medium, size, label, labelWidth - 4).forEach((line, k) =>
-          this.page.drawText(line, { x, y: this.y - size - k * lh, size, font: this.fonts.medium, color: SOFT }),
+          this.fonts.medium.draw(this.page, line, { x, y: this.y - size - k * lh, size, color: SOFT }),
         );
         wrap(this.fonts.regular, size, value, colWidth - labelWidth).forEach((line, k) =>
-          this.page.drawText(line, { x: x + labelWidth, y: this.y - size - k * lh, size, font: this.fonts.regular, color: INK }),
+          this.fonts.regular.draw(this.page, line, { x: x + labelWidth, y: this.y - size - k * lh, size, color: INK }),
         );
       });
       this.y -= h;
@@ -306,9 +227,9 @@ export class Flow {
         const color = typeof cell === "string" ? INK : (cell.color ?? INK);
         const align = columns[i]!.align ?? "left";
         lines[i]!.slice(from, from + n).forEach((line, k) => {
-          const w = font.widthOfTextAtSize(line, size);
+          const w = font.width(line, size);
           const dx = align === "right" ? widths[i]! - pad - w : align === "center" ? (widths[i]! - w) / 2 : pad;
-          this.page.drawText(line, { x: x + dx, y: this.y - pad - size * 0.92 - k * lh, size, font, color });
+          font.draw(this.page, line, { x: x + dx, y: this.y - pad - size * 0.92 - k * lh, size, color });
         });
         x += widths[i]!;
       });
@@ -362,13 +283,13 @@ export class Flow {
     this.y -= 8;
     for (const line of titleLines) {
       this.ensure(lh);
-      this.page.drawText(line, { x: this.geo.left + 12, y: this.y - size - 1, size: size + 1, font: this.fonts.bold, color });
+      this.fonts.bold.draw(this.page, line, { x: this.geo.left + 12, y: this.y - size - 1, size: size + 1, color });
       this.y -= lh * 1.1;
     }
     for (const lines of bodyLines) {
       for (const line of lines) {
         this.ensure(lh);
-        this.page.drawText(line, { x: this.geo.left + 12, y: this.y - size, size, font: this.fonts.regular, color: INK });
+        this.fonts.regular.draw(this.page, line, { x: this.geo.left + 12, y: this.y - size, size, color: INK });
         this.y -= lh;
       }
       this.y -= 4;

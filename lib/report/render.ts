@@ -11,7 +11,8 @@ import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { SAFETY_CAUTIONS, SAFETY_FOOTNOTE } from "@/lib/safety/cautions";
 import { drawCrossSection, drawProfileChart, drawQr } from "./graphics";
 import type { ItemStatus, ReportModel, ReportTraverse, SummaryRow } from "./model";
-import { ACCENT, embedFonts, fit, Flow, geometryFor, INK, RULE, SOFT, WARN, wrap, type Cell } from "./pdf-kit";
+import { embedFonts } from "./fonts";
+import { ACCENT, deflatePageContents, Flow, geometryFor, INK, RULE, SOFT, WARN, wrap, type Cell } from "./pdf-kit";
 
 export const DRAFT_MARK = "Draft — not issued";
 export const AIR_SIDE_NOTE = "This report covers the air side only. Hydronic balancing, where the project has it, is reported separately.";
@@ -326,12 +327,12 @@ export async function renderReport(model: ReportModel, options: RenderOptions = 
         flow.page.drawRectangle({ x, y: rowTop - imgH, width: cellW, height: imgH, color: rgb(0.97, 0.97, 0.97) });
         flow.page.drawImage(image, { x: x + (cellW - w) / 2, y: rowTop - imgH + (imgH - h) / 2, width: w, height: h });
       } catch {
-        flow.page.drawText(fit(fonts.regular, "The image could not be read."), { x, y: rowTop - 20, size: 9, font: fonts.regular, color: WARN });
+        fonts.regular.draw(flow.page, fonts.regular.fit("The image could not be read."), { x, y: rowTop - 20, size: 9, color: WARN });
       }
       const caption = `${photo.systemTag} / ${photo.sectionTag}${photo.caption ? `: ${photo.caption}` : ""} (${[photo.takenBy, dateText(photo.takenAt)].filter(Boolean).join(", ")})`;
       wrap(fonts.regular, 8, caption, cellW)
         .slice(0, 2)
-        .forEach((line, n) => flow.page.drawText(line, { x, y: rowTop - imgH - 11 - n * 10, size: 8, font: fonts.regular, color: INK }));
+        .forEach((line, n) => fonts.regular.draw(flow.page, line, { x, y: rowTop - imgH - 11 - n * 10, size: 8, color: INK }));
     }
     flow.y = rowTop - imgH - 34;
   }
@@ -408,6 +409,7 @@ export async function renderReport(model: ReportModel, options: RenderOptions = 
   doc.setProducer("Airtally");
   doc.setCreationDate(date);
   doc.setModificationDate(date);
+  deflatePageContents(doc);
   return doc.save();
 }
 
@@ -448,7 +450,7 @@ function renderTraverse(flow: Flow, t: ReportTraverse, u: UnitSystem, kind: Repo
   const chartH = 168;
   flow.ensure(chartH + 8);
   const top = flow.y;
-  flow.page.drawText("Cross-section: ports (squares) and points numbered", { x: flow.geo.left, y: top - 8, size: 7, font: flow.fonts.semibold, color: SOFT });
+  flow.fonts.semibold.draw(flow.page, "Cross-section: ports (squares) and points numbered", { x: flow.geo.left, y: top - 8, size: 7, color: SOFT });
   drawCrossSection(flow.page, flow.fonts, t, flow.geo.left, top - 14, box);
   const chartX = flow.geo.left + box + 24;
   drawProfileChart(flow.page, flow.fonts, t, u, chartX, top, flow.geo.right - chartX, chartH);
@@ -539,7 +541,7 @@ function drawContents(flow: Flow, pageIndex: number, contents: ContentsEntry[]):
   const page = flow.pages[pageIndex]!;
   const { fonts, geo } = flow;
   let y = geo.top;
-  page.drawText("Contents", { x: geo.left, y: y - 17, size: 17, font: fonts.bold, color: ACCENT });
+  fonts.bold.draw(page, "Contents", { x: geo.left, y: y - 17, size: 17, color: ACCENT });
   y -= 24;
   page.drawLine({ start: { x: geo.left, y }, end: { x: geo.right, y }, thickness: 0.8, color: ACCENT });
   y -= 12;
@@ -556,12 +558,12 @@ function drawContents(flow: Flow, pageIndex: number, contents: ContentsEntry[]):
     const font = entry.level === 1 ? fonts.semibold : fonts.regular;
     const x = geo.left + (entry.level === 1 ? 0 : 16);
     const number = entry.page > 0 ? String(entry.page) : "";
-    const nw = font.widthOfTextAtSize(number, size);
+    const nw = font.width(number, size);
     const titleText = wrap(font, size, entry.title, geo.right - x - 60)[0]!;
-    const tw = font.widthOfTextAtSize(titleText, size);
-    page.drawText(titleText, { x, y: y - size, size, font, color: INK });
+    const tw = font.width(titleText, size);
+    font.draw(page, titleText, { x, y: y - size, size, color: INK });
     if (number) {
-      page.drawText(number, { x: geo.right - nw, y: y - size, size, font, color: INK });
+      font.draw(page, number, { x: geo.right - nw, y: y - size, size, color: INK });
       // Dotted leader from the title to the page number.
       page.drawLine({ start: { x: x + tw + 6, y: y - size + 1.5 }, end: { x: geo.right - nw - 6, y: y - size + 1.5 }, thickness: 0.6, color: RULE, dashArray: [0.6, 2.4] });
     }
@@ -572,11 +574,12 @@ function drawContents(flow: Flow, pageIndex: number, contents: ContentsEntry[]):
 function decoratePage(flow: Flow, page: ReturnType<Flow["newPage"]>, n: number, total: number, model: ReportModel): void {
   const { fonts, geo } = flow;
   const headY = geo.height - 40;
-  const left = fit(fonts.semibold, `Closeout report · ${model.project.name}`);
-  page.drawText(wrap(fonts.semibold, 8.5, left, (geo.right - geo.left) * 0.62)[0]!, { x: geo.left, y: headY, size: 8.5, font: fonts.semibold, color: INK });
+  const left = fonts.semibold.fit(`Closeout report · ${model.project.name}`);
+  fonts.semibold.draw(page, wrap(fonts.semibold, 8.5, left, (geo.right - geo.left) * 0.62)[0]!, { x: geo.left, y: headY, size: 8.5, color: INK });
   const right = model.kind === "draft" ? DRAFT_MARK : `Revision ${model.revision} · ${model.code}`;
   const rf = model.kind === "draft" ? fonts.bold : fonts.medium;
-  page.drawText(fit(rf, right), { x: geo.right - rf.widthOfTextAtSize(fit(rf, right), 8.5), y: headY, size: 8.5, font: rf, color: model.kind === "draft" ? WARN : SOFT });
+  const rightText = rf.fit(right);
+  rf.draw(page, rightText, { x: geo.right - rf.width(rightText, 8.5), y: headY, size: 8.5, color: model.kind === "draft" ? WARN : SOFT });
   page.drawLine({ start: { x: geo.left, y: headY - 7 }, end: { x: geo.right, y: headY - 7 }, thickness: 0.5, color: RULE });
 
   const qr = 46;
@@ -591,23 +594,24 @@ function decoratePage(flow: Flow, page: ReturnType<Flow["newPage"]>, n: number, 
   let y = footTop - 14;
   for (const line of lines) {
     for (const part of wrap(fonts.regular, 7.5, line, textWidth).slice(0, 2)) {
-      page.drawText(part, { x: geo.left, y, size: 7.5, font: fonts.regular, color: SOFT });
+      fonts.regular.draw(page, part, { x: geo.left, y, size: 7.5, color: SOFT });
       y -= 9.5;
     }
   }
   const pageText = `Page ${n} of ${total}`;
-  page.drawText(pageText, { x: geo.left, y: footTop - 48, size: 8.5, font: fonts.semibold, color: INK });
+  fonts.semibold.draw(page, pageText, { x: geo.left, y: footTop - 48, size: 8.5, color: INK });
 
   if (model.kind === "draft") {
     const size = 54;
-    const w = fonts.bold.widthOfTextAtSize(DRAFT_MARK, size);
+    const w = fonts.bold.width(DRAFT_MARK, size);
     const angle = 32;
     const rad = (angle * Math.PI) / 180;
+    // Turned and translucent: pdf-lib's own text drawing, which sets up the transparency.
     page.drawText(DRAFT_MARK, {
       x: geo.width / 2 - (w / 2) * Math.cos(rad) + (size / 3) * Math.sin(rad),
       y: geo.height / 2 - (w / 2) * Math.sin(rad) - (size / 3) * Math.cos(rad),
       size,
-      font: fonts.bold,
+      font: fonts.bold.embedded,
       color: WARN,
       opacity: 0.1,
       rotate: degrees(angle),
