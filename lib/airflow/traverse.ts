@@ -311,26 +311,26 @@ function traversePoints(layout: Layout, values: TraversePointValues, filled: rea
  * rather than an object literal with a getter, which costs more to create than the whole reduction.
  */
 class Reduction implements TraverseResult {
-  air: AirState;
-  densityKgM3: number;
-  standardDensityKgM3: number;
-  instrumentStandardDensityKgM3: number | null;
-  readingsKind: ReadingsKind;
-  meanVelocityMS: number;
-  areaM2: number;
-  hydraulicDiameterM: number;
-  flowM3S: number;
-  standardFlowM3S: number;
-  massFlowKgS: number;
-  reynolds: number;
-  maxMach: number;
-  integrationRule: IntegrationRule;
-  filled: FilledPoint[];
-  layout: Layout;
-  pointValues: TraversePointValues;
-  quality: PlaneQuality;
-  uncertainty: TraverseUncertainty;
-  warnings: string[];
+  declare air: AirState;
+  declare densityKgM3: number;
+  declare standardDensityKgM3: number;
+  declare instrumentStandardDensityKgM3: number | null;
+  declare readingsKind: ReadingsKind;
+  declare meanVelocityMS: number;
+  declare areaM2: number;
+  declare hydraulicDiameterM: number;
+  declare flowM3S: number;
+  declare standardFlowM3S: number;
+  declare massFlowKgS: number;
+  declare reynolds: number;
+  declare maxMach: number;
+  declare integrationRule: IntegrationRule;
+  declare filled: FilledPoint[];
+  declare layout: Layout;
+  declare pointValues: TraversePointValues;
+  declare quality: PlaneQuality;
+  declare uncertainty: TraverseUncertainty;
+  declare warnings: string[];
   #points: TraversePoint[] | undefined;
 
   constructor(r: Omit<TraverseResult, "points">) {
@@ -488,10 +488,10 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const { pvs, velocities: readVelocities, developed, readings } = missing === 0
     ? { pvs: pointPressures, velocities: pointVelocities, developed: profileFlat, readings: pointReadings }
     : pointsRead(pointReadings, pointPressures, pointVelocities, profileFlat);
-  // Copied element by element: concat is slow on the frozen lists of shared layouts and air states.
+  // Copied by index: concat and for…of are slow on the frozen lists of shared layouts and air states.
   const warnings: string[] = [];
-  for (const w of layout.warnings) warnings.push(w);
-  for (const w of air.warnings) warnings.push(w);
+  for (let j = 0; j < layout.warnings.length; j++) warnings.push(layout.warnings[j]!);
+  for (let j = 0; j < air.warnings.length; j++) warnings.push(air.warnings[j]!);
 
   // A complete grid is planeMean's equal-weight case, its mean already summed above.
   let meanVelocityMS = sumV / readCount;
