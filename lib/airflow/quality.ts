@@ -55,8 +55,10 @@ function pct(x: number): string {
 }
 
 /**
- * The sums the plane checks need from the points read (one pass over them), so a caller that already
- * walks the points (reduceTraverse) gathers them on the way instead of walking them again.
+ * The sums the plane checks need from the points read, so that a caller that already walks the points
+ * (reduceTraverse) gathers them on the way instead of walking them again. Two passes: the first gives the
+ * largest Pv and velocity, the sum of velocities and the counts; the second, once the largest Pv and the
+ * mean (sumV / count) are known, the points above a tenth of that Pv and the squared deviations.
  */
 export interface PlaneSums {
   count: number;
@@ -66,6 +68,10 @@ export interface PlaneSums {
   zeroOrNegativeCount: number;
   /** Points with 0 < Pv < LOW_VELOCITY_PRESSURE_PA (whatever the kind of reading; assessPlaneFromSums decides). */
   lowPressureCount: number;
+  /** Points with Pv > 0.1 × maxPv. */
+  aboveTenthCount: number;
+  /** Σ (v − sumV/count)². */
+  squares: number;
 }
 
 /**
@@ -78,7 +84,7 @@ export interface PlaneSums {
 export function assessPlane(velocityPressuresPa: ArrayLike<number>, velocitiesMS: ArrayLike<number>, options: { readAsPressures?: boolean } = {}): PlaneQuality {
   const count = velocitiesMS.length;
   if (count === 0 || velocityPressuresPa.length !== count) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
-  const sums: PlaneSums = { count, maxPv: -Infinity, maxV: -Infinity, sumV: 0, zeroOrNegativeCount: 0, lowPressureCount: 0 };
+  const sums: PlaneSums = { count, maxPv: -Infinity, maxV: -Infinity, sumV: 0, zeroOrNegativeCount: 0, lowPressureCount: 0, aboveTenthCount: 0, squares: 0 };
   for (let i = 0; i < count; i++) {
     const pv = velocityPressuresPa[i]!;
     const v = velocitiesMS[i]!;
@@ -88,29 +94,23 @@ export function assessPlane(velocityPressuresPa: ArrayLike<number>, velocitiesMS
     if (pv <= 0) sums.zeroOrNegativeCount++;
     else if (pv < LOW_VELOCITY_PRESSURE_PA) sums.lowPressureCount++;
   }
-  return assessPlaneFromSums(sums, velocityPressuresPa, velocitiesMS, options.readAsPressures !== false);
+  const mean = sums.sumV / count;
+  const tenthOfMax = 0.1 * sums.maxPv;
+  for (let i = 0; i < count; i++) {
+    if (velocityPressuresPa[i]! > tenthOfMax) sums.aboveTenthCount++;
+    const d = velocitiesMS[i]! - mean;
+    sums.squares += d * d;
+  }
+  return assessPlaneFromSums(sums, options.readAsPressures !== false);
 }
 
-/**
- * assessPlane from the sums of the same points (see PlaneSums); the lists are walked once more for what
- * needs the largest Pv and the mean first.
- */
-export function assessPlaneFromSums(sums: PlaneSums, velocityPressuresPa: ArrayLike<number>, velocitiesMS: ArrayLike<number>, readAsPressures: boolean): PlaneQuality {
-  const count = sums.count;
-  if (count === 0 || velocityPressuresPa.length !== count || velocitiesMS.length !== count) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
-  const { maxPv, maxV, sumV, zeroOrNegativeCount } = sums;
+/** assessPlane from the sums of the same points (see PlaneSums). */
+export function assessPlaneFromSums(sums: PlaneSums, readAsPressures: boolean): PlaneQuality {
+  const { count, maxPv, maxV, sumV, zeroOrNegativeCount, squares } = sums;
+  if (!(count > 0)) throw new RangeError("assessPlane needs equal, non-empty lists of pressures and velocities");
   const lowPressureCount = readAsPressures ? sums.lowPressureCount : 0;
   const mean = sumV / count;
-  const tenthOfMax = 0.1 * maxPv;
-  let aboveTenth = 0;
-  let squares = 0;
-  for (let i = 0; i < count; i++) {
-    if (velocityPressuresPa[i]! > tenthOfMax) aboveTenth++;
-    const d = velocitiesMS[i]! - mean;
-    squares += d * d;
-  }
-  if (!(maxPv > 0)) aboveTenth = 0;
-  const shareAboveTenthOfMax = aboveTenth / count;
+  const shareAboveTenthOfMax = maxPv > 0 ? sums.aboveTenthCount / count : 0;
   const variance = count > 1 ? squares / (count - 1) : 0;
   const maxOverMean = mean > 0 ? maxV / mean : Number.POSITIVE_INFINITY;
   const cv = mean > 0 ? Math.sqrt(variance) / mean : Number.POSITIVE_INFINITY;

@@ -15,12 +15,12 @@ import {
   densityRelativeUncertainty,
   formatExpandedUncertainty,
   pressureReadingErrorBound,
-  profileSpread,
   readingRelativeFromSums,
   samplingFromSpreads,
+  spreadFromSums,
   traverseFlowUncertainties,
   velocityOverProfile,
-  velocityReadingRelativeUncertainty,
+  velocityReadingErrorBound,
   type FlowUncertainty,
   type InstrumentAccuracy,
   type SamplingUncertainty,
@@ -198,6 +198,16 @@ function nanList(n: number): number[] {
   return template.slice();
 }
 
+/**
+ * The ratios of the points read to the developed profile, kept between the second and third pass. One
+ * list reused from one reduction to the next (nothing keeps it); grown when a grid is larger.
+ */
+let ratioList: number[] = nanList(128);
+function ratioListFor(n: number): number[] {
+  if (ratioList.length < n) ratioList = nanList(n);
+  return ratioList;
+}
+
 /** An anemometer reading's velocity, m/s, never below 0 (actual, or standard referred to the instrument's density). */
 function anemometerVelocityMS(kind: ReadingsKind, reading: number, rho: number, instrumentDensityKgM3: number): number {
   return Math.max(0, kind === "velocity_actual" ? reading : actualVelocityFromStandardMS(reading, rho, instrumentDensityKgM3));
@@ -366,22 +376,6 @@ class Reduction implements TraverseResult {
   }
 }
 
-/** The points read, in point order, from the per-point lists (NaN reading: not read). */
-function pointsRead(pointReadings: readonly number[], pointPressures: readonly number[], pointVelocities: readonly number[], profileFlat: readonly number[]) {
-  const pvs: number[] = [];
-  const velocities: number[] = [];
-  const developed: number[] = [];
-  const readings: number[] = [];
-  for (let at = 0; at < pointReadings.length; at++) {
-    if (Number.isNaN(pointReadings[at]!)) continue;
-    pvs.push(pointPressures[at]!);
-    velocities.push(pointVelocities[at]!);
-    developed.push(profileFlat[at]!);
-    readings.push(pointReadings[at]!);
-  }
-  return { pvs, velocities, developed, readings };
-}
-
 /**
  * Reduces a traverse. Input is assumed validated (see lib/validation/calc.ts): readings must match the
  * layout's shape. Throws AirStateError for impossible air, EngineInputError (field `readings`) when most
@@ -444,9 +438,6 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
       const reading = row[i];
       if (reading === null || reading === undefined) continue;
       const at = k * perLine + i;
-      readCount++;
-      if (reading < 0) negative++;
-      else if (reading > 0) positive++;
       pointReadings[at] = reading;
       if (isPitot) pointVelocities[at] = velocityFromPressureAtStateMS(reading, absolutePa, stateFactor, coefficient);
       else {
@@ -456,18 +447,26 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
       }
     }
   }
-  const pressureFraction = accuracy.pressureAccuracyPct / 100;
-  const pressureFloorPa = accuracy.pressureFloorPa;
+  // The reading uncertainty's bound per reading: a manometer's ± % of reading + floor on Pv, relative to
+  // √Pv; an anemometer's on the velocity read, relative to the velocities.
+  const readingFraction = (isPitot ? accuracy.pressureAccuracyPct : accuracy.velocityAccuracyPct) / 100;
+  const readingFloor = isPitot ? accuracy.pressureFloorPa : accuracy.velocityFloorMS;
+  const ratios = ratioListFor(pointCount);
   let maxPv = -Infinity;
   let maxV = -Infinity;
   let sumV = 0;
   let zeroOrNegativeCount = 0;
   let lowPressureCount = 0;
   let errorSum = 0;
-  let rootSum = 0;
+  let scaleSum = 0;
   let ratioSum = 0;
+  let n = 0;
   for (let at = 0; at < pointCount; at++) {
-    if (Number.isNaN(pointReadings[at]!)) continue;
+    const reading = pointReadings[at]!;
+    if (Number.isNaN(reading)) continue;
+    readCount++;
+    if (reading < 0) negative++;
+    else if (reading > 0) positive++;
     const pv = pointPressures[at]!;
     const v = pointVelocities[at]!;
     if (pv > maxPv) maxPv = pv;
@@ -476,18 +475,36 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     if (pv <= 0) zeroOrNegativeCount++;
     else if (pv < LOW_VELOCITY_PRESSURE_PA) lowPressureCount++;
     if (isPitot) {
-      errorSum += pressureReadingErrorBound(pv, pressureFraction, pressureFloorPa);
-      rootSum += Math.sqrt(Math.max(pv, 0));
+      errorSum += pressureReadingErrorBound(pv, readingFraction, readingFloor);
+      scaleSum += Math.sqrt(Math.max(pv, 0));
+    } else {
+      scaleSum += Math.max(reading, 0);
+      errorSum += velocityReadingErrorBound(reading, readingFraction, readingFloor);
     }
-    ratioSum += velocityOverProfile(v, profileFlat[at]!);
+    const ratio = velocityOverProfile(v, profileFlat[at]!);
+    ratios[n++] = ratio;
+    ratioSum += ratio;
   }
   refuseBackwardFlow(readCount, negative, positive, kind);
   if (readCount === 0) throw new RangeError("readings: at least one point must be read");
+  // The third pass needs the largest Pv and the means: points above a tenth of that Pv, and the squared
+  // deviations of the velocities (plane check, flat spread) and of the ratios (developed spread).
+  const meanV = sumV / readCount;
+  const tenthOfMax = 0.1 * maxPv;
+  const ratioMean = ratioSum / readCount;
+  let aboveTenthCount = 0;
+  let squares = 0;
+  let ratioSquares = 0;
+  n = 0;
+  for (let at = 0; at < pointCount; at++) {
+    if (Number.isNaN(pointReadings[at]!)) continue;
+    if (pointPressures[at]! > tenthOfMax) aboveTenthCount++;
+    const d = pointVelocities[at]! - meanV;
+    squares += d * d;
+    const e = ratios[n++]! - ratioMean;
+    ratioSquares += e * e;
+  }
   const missing = pointCount - readCount;
-  // The lists of the points read, in point order: the per-point lists themselves when every point was read.
-  const { pvs, velocities: readVelocities, developed, readings } = missing === 0
-    ? { pvs: pointPressures, velocities: pointVelocities, developed: profileFlat, readings: pointReadings }
-    : pointsRead(pointReadings, pointPressures, pointVelocities, profileFlat);
   // Copied by index: concat and for…of are slow on the frozen lists of shared layouts and air states.
   const warnings: string[] = [];
   for (let j = 0; j < layout.warnings.length; j++) warnings.push(layout.warnings[j]!);
@@ -515,7 +532,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const maxVelocity = Math.max(0, maxV);
   const maxMach = machNumber(maxVelocity, air.dryBulbC);
 
-  const quality = assessPlaneFromSums({ count: readCount, maxPv, maxV, sumV, zeroOrNegativeCount, lowPressureCount }, pvs, readVelocities, isPitot);
+  const quality = assessPlaneFromSums({ count: readCount, maxPv, maxV, sumV, zeroOrNegativeCount, lowPressureCount, aboveTenthCount, squares }, isPitot);
   if (quality.zeroOrNegativeCount > 0)
     warnings.push(`${plural(quality.zeroOrNegativeCount, "point reads", "points read")} zero or negative; counted as zero velocity (reverse flow or swirl at the plane?).`);
   if (quality.lowPressureCount > 0)
@@ -534,12 +551,12 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
 
   // The developed reference profile at every read position serves both the layout term and the sampling
   // term. The spread about a flat profile is the plane check's coefficient of variation.
-  const sampling = samplingFromSpreads(readCount < 2 ? 0 : quality.cv, profileSpread(readVelocities, developed, ratioSum), readCount, plane.straightRun);
+  const sampling = samplingFromSpreads(readCount < 2 ? 0 : quality.cv, spreadFromSums(readCount, ratioSum, ratioSquares), readCount, plane.straightRun);
   const flows = traverseFlowUncertainties(
     {
       duct: input.duct,
       accuracy,
-      readingRelative: isPitot ? readingRelativeFromSums(errorSum, rootSum) : velocityReadingRelativeUncertainty(readings, accuracy),
+      readingRelative: readingRelativeFromSums(errorSum, scaleSum),
       densityRelative: densityRelativeUncertainty(input.air, accuracy),
       layoutError: missing > 0 ? layoutErrorWithGaps(layout, profile, pointReadings) : plane.completeError,
       pointCount: readCount,

@@ -163,21 +163,30 @@ export function pressureReadingErrorBound(pv: number, fraction: number, floorPa:
   return (Math.sqrt(positive + u) - Math.sqrt(Math.max(positive - u, 0))) / 2;
 }
 
-/** pressureReadingRelativeUncertainty from the sums of pressureReadingErrorBound and of √Pv⁺ over the readings. */
+/**
+ * A reading uncertainty from its sums over the readings: of the error bounds (pressureReadingErrorBound or
+ * velocityReadingErrorBound) and of what they are relative to (√Pv⁺, or the velocities v⁺).
+ */
 export function readingRelativeFromSums(errorSum: number, rootSum: number): number {
   return rootSum > 0 ? errorSum / rootSum : Number.POSITIVE_INFINITY;
 }
 
 /** Relative error bound of the mean velocity from anemometer velocities (m/s) of ±(pct % + floor m/s), correlated as above. */
 export function velocityReadingRelativeUncertainty(velocitiesMS: ArrayLike<number>, accuracy: Pick<InstrumentAccuracy, "velocityAccuracyPct" | "velocityFloorMS">): number {
+  const fraction = accuracy.velocityAccuracyPct / 100;
+  let errorSum = 0;
   let sum = 0;
-  let err = 0;
   for (let i = 0; i < velocitiesMS.length; i++) {
     const v = velocitiesMS[i]!;
     sum += Math.max(v, 0);
-    err += (accuracy.velocityAccuracyPct / 100) * Math.abs(v) + accuracy.velocityFloorMS;
+    errorSum += velocityReadingErrorBound(v, fraction, accuracy.velocityFloorMS);
   }
-  return sum > 0 ? err / sum : Number.POSITIVE_INFINITY;
+  return readingRelativeFromSums(errorSum, sum);
+}
+
+/** One anemometer reading's share of velocityReadingRelativeUncertainty: fraction·|v| + floor (fraction = % of reading / 100). */
+export function velocityReadingErrorBound(velocityMS: number, fraction: number, floorMS: number): number {
+  return fraction * Math.abs(velocityMS) + floorMS;
 }
 
 /**
@@ -351,13 +360,23 @@ export function coefficientOfVariation(values: ArrayLike<number>): number {
   let sum = 0;
   for (let i = 0; i < n; i++) sum += values[i]!;
   const mean = sum / n;
-  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
   let ss = 0;
   for (let i = 0; i < n; i++) {
     const d = values[i]! - mean;
     ss += d * d;
   }
-  return Math.sqrt(ss / (n - 1)) / mean;
+  return spreadFromSums(n, sum, ss);
+}
+
+/**
+ * coefficientOfVariation from the sums over the values: `sum` of them, and `squares` of their deviations
+ * from sum/count (for a caller that gathers them while walking the values for something else).
+ */
+export function spreadFromSums(count: number, sum: number, squares: number): number {
+  if (count < 2) return 0;
+  const mean = sum / count;
+  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
+  return Math.sqrt(squares / (count - 1)) / mean;
 }
 
 /** A velocity over the developed profile's value at its point (each value taken as at least 1e-6): the sampling term's shaped spread is the CV of these. */
@@ -373,31 +392,14 @@ export function velocityOverProfile(velocityMS: number, developed: number): numb
 export function samplingUncertainty(velocitiesMS: ArrayLike<number>, developed: ArrayLike<number>, straightRun: StraightRun = "unknown"): SamplingUncertainty {
   const n = velocitiesMS.length;
   if (n === 0) return samplingFromSpreads(Number.POSITIVE_INFINITY, Number.POSITIVE_INFINITY, 0, straightRun);
-  let ratioSum = 0;
-  for (let i = 0; i < n; i++) ratioSum += velocityOverProfile(velocitiesMS[i]!, developed[i] ?? 1);
-  return samplingFromSpreads(coefficientOfVariation(velocitiesMS), profileSpread(velocitiesMS, developed, ratioSum), n, straightRun);
-}
-
-/**
- * The spread about the developed profile: the coefficient of variation of velocityOverProfile over the
- * points, given the sum of those ratios in point order (a caller that already walks the points adds it).
- */
-export function profileSpread(velocitiesMS: ArrayLike<number>, developed: ArrayLike<number>, ratioSum: number): number {
-  const n = velocitiesMS.length;
-  if (n < 2) return 0;
-  const mean = ratioSum / n;
-  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
-  let ss = 0;
-  for (let i = 0; i < n; i++) {
-    const d = velocityOverProfile(velocitiesMS[i]!, developed[i] ?? 1) - mean;
-    ss += d * d;
-  }
-  return Math.sqrt(ss / (n - 1)) / mean;
+  const ratios = new Array<number>(n);
+  for (let i = 0; i < n; i++) ratios[i] = velocityOverProfile(velocitiesMS[i]!, developed[i] ?? 1);
+  return samplingFromSpreads(coefficientOfVariation(velocitiesMS), coefficientOfVariation(ratios), n, straightRun);
 }
 
 /**
  * samplingUncertainty from the two spreads of the same N points: about a flat profile (the CV of the
- * velocities) and about the developed one (the CV of velocityOverProfile).
+ * velocities) and about the developed one (the CV of velocityOverProfile; see spreadFromSums).
  */
 export function samplingFromSpreads(flat: number, shaped: number, pointCount: number, straightRun: StraightRun = "unknown"): SamplingUncertainty {
   const factor = straightRun === "unsuitable" ? UNSUITABLE_RUN_SAMPLING_FACTOR : straightRun === "short" ? SHORT_RUN_SAMPLING_FACTOR : 1;
