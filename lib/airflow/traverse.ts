@@ -415,12 +415,14 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const profile = plane.profile;
   const profileFlat = plane.profileFlat;
 
-  // Two passes over the points, both on plain locals (no objects: this is most of the engine's time).
+  // Three passes over the points, all on plain locals (no objects: this is most of the engine's time).
   // The first converts each reading once into the per-point values the result keeps (NaN where not
-  // read) and counts for the forward-flow check; it holds few values, so the calls of the pitot relation
-  // (logarithm and exponential) cost no more than in a bare loop. The second gathers, from those lists,
-  // the sums of the plane checks (assessPlane's PlaneSums), of the reading uncertainty (as
-  // pressureReadingRelativeUncertainty adds them) and of the ratios to the developed profile.
+  // read); it holds few values, so the calls of the pitot relation (logarithm and exponential) cost no
+  // more than in a bare loop. The second gathers, from those lists, the counts of the forward-flow check
+  // and the sums of the plane checks (assessPlane's PlaneSums), of the reading uncertainty (as
+  // pressureReadingRelativeUncertainty adds them) and of the ratios to the developed profile; the third,
+  // the deviations from the means. Backward readings are refused after the second pass: the conversion
+  // before it changes nothing a caller can see.
   const pointCount = layout.lineCount * perLine;
   const isPitot = kind === "velocity_pressure";
   const absolutePa = air.absolutePressurePa;
