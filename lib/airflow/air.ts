@@ -271,3 +271,47 @@ export function airState(conditions: AirConditions, options: { fieldPrefix?: str
     warnings,
   };
 }
+
+/** How many distinct air states airStateFor keeps: a project's traverses, with room to spare. */
+const AIR_STATE_MEMO_SIZE = 128;
+const airStates = new Map<string, AirState>();
+let lastAir: { conditions: AirConditions; state: AirState } | null = null;
+
+function sameConditions(a: AirConditions, b: AirConditions): boolean {
+  return (
+    Object.is(a.dryBulbC, b.dryBulbC) &&
+    Object.is(a.barometricPa, b.barometricPa) &&
+    Object.is(a.altitudeM, b.altitudeM) &&
+    Object.is(a.staticPa, b.staticPa) &&
+    Object.is(a.relativeHumidityPct, b.relativeHumidityPct) &&
+    Object.is(a.wetBulbC, b.wetBulbC)
+  );
+}
+
+/** A number (or undefined) as a key part that keeps −0 apart from 0, as Object.is does. */
+const keyPart = (x: number | undefined) => (Object.is(x, -0) ? "-0" : String(x));
+
+/**
+ * airState, remembered: the state depends only on the conditions, and every recalculation of a traverse
+ * (each reading as it lands, every screen and report that shows it) asks again with the same air. The
+ * state is frozen, so no caller can change the shared copy; least recently used states are dropped
+ * beyond AIR_STATE_MEMO_SIZE. Impossible air throws AirStateError as airState does, and is not remembered.
+ */
+export function airStateFor(conditions: AirConditions): AirState {
+  if (lastAir && sameConditions(lastAir.conditions, conditions)) return lastAir.state;
+  const key = [conditions.dryBulbC, conditions.barometricPa, conditions.altitudeM, conditions.staticPa, conditions.relativeHumidityPct, conditions.wetBulbC].map(keyPart).join("|");
+  let state = airStates.get(key);
+  if (state) {
+    airStates.delete(key);
+    airStates.set(key, state);
+  } else {
+    state = airState(conditions);
+    Object.freeze(state.warnings);
+    Object.freeze(state);
+    airStates.set(key, state);
+    if (airStates.size > AIR_STATE_MEMO_SIZE) airStates.delete(airStates.keys().next().value as string);
+  }
+  const { dryBulbC, barometricPa, altitudeM, staticPa, relativeHumidityPct, wetBulbC } = conditions;
+  lastAir = { conditions: { dryBulbC, barometricPa, altitudeM, staticPa, relativeHumidityPct, wetBulbC }, state };
+  return state;
+}

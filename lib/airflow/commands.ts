@@ -9,6 +9,7 @@ import {
   describeValue,
   layoutInputSchema,
   networkInputSchema,
+  plainlyValidTraverseInput,
   traverseInputSchema,
   type LayoutInputJson,
   type TraverseInputJson,
@@ -16,7 +17,7 @@ import {
 import { capFieldErrors, EngineInputError, MAX_FIELD_ERRORS, MORE_FIELDS_KEY } from "./errors";
 import { buildLayout, type Duct, type Layout, type LayoutRequest } from "./layout";
 import { checkContinuity } from "./network";
-import { reduceTraverse, type ReadingsKind, type TraverseInput, type TraversePoint } from "./traverse";
+import { reduceTraverse, type ReadingsKind, type TraverseInput, type TraverseResult } from "./traverse";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { formatExpandedUncertainty, type FlowUncertainty, type UncertaintyTerms } from "./uncertainty";
 
@@ -153,24 +154,70 @@ function runLayout(input: unknown): Result<unknown> {
   return ok(layoutJson(buildLayout(layoutRequest(parsed.data))));
 }
 
-/** One traverse point as JSON; flags appear only when set (assigned, not spread: this runs per point). */
-function pointJson(p: TraversePoint) {
-  const out: Record<string, unknown> = {
-    line: p.line,
-    point: p.point,
-    x_mm: mm01(p.xM),
-    y_mm: mm01(p.yM),
-    depth_mm: mm01(p.depthM),
-    position_mm: mm01(p.positionM),
-    read_position_mm: mm01(p.readPositionM),
-  };
-  if (p.beyondProbeReach) out.beyond_probe_reach = true;
-  out.reading = p.reading;
-  out.velocity_pressure_pa = p.velocityPressurePa;
-  out.velocity_m_s = p.velocityMS;
-  if (p.filledFrom !== null) {
-    out.filled_from = p.filledFrom;
-    out.filled_velocity_m_s = p.filledVelocityMS;
+/** Where each point of a layout is, as the points' JSON gives it (rounded once per layout object). */
+interface PointPlace {
+  line: number;
+  point: number;
+  x_mm: number;
+  y_mm: number;
+  depth_mm: number;
+  position_mm: number;
+  read_position_mm: number;
+  beyondProbeReach: boolean;
+}
+const pointPlaces = new WeakMap<Layout, PointPlace[]>();
+
+function pointPlacesOf(layout: Layout): PointPlace[] {
+  let places = pointPlaces.get(layout);
+  if (!places) {
+    places = layout.lines.flatMap((line) =>
+      line.points.map((p) => ({
+        line: p.line,
+        point: p.point,
+        x_mm: mm01(p.xM),
+        y_mm: mm01(p.yM),
+        depth_mm: mm01(p.depthM),
+        position_mm: mm01(p.positionM),
+        read_position_mm: mm01(p.readPositionM),
+        beyondProbeReach: p.beyondProbeReach,
+      })),
+    );
+    pointPlaces.set(layout, places);
+  }
+  return places;
+}
+
+/**
+ * Every traverse point as JSON, in layout order, straight from the result's per-point values (the same
+ * numbers as `result.points`, without building those records first). Flags appear only when set; the
+ * keys keep the contract's order.
+ */
+function pointsJson(r: TraverseResult): Record<string, unknown>[] {
+  const places = pointPlacesOf(r.layout);
+  const perLine = r.layout.pointsPerLine;
+  const { reading: readings, velocityPressurePa, velocityMS } = r.pointValues;
+  let filledAt: (TraverseResult["filled"][number] | undefined)[] | undefined;
+  if (r.filled.length > 0) {
+    filledAt = [];
+    for (const f of r.filled) filledAt[f.line * perLine + f.point] = f;
+  }
+  const out = new Array<Record<string, unknown>>(places.length);
+  for (let j = 0; j < places.length; j++) {
+    const p = places[j]!;
+    const at = p.line * perLine + p.point;
+    const read = !Number.isNaN(readings[at]!);
+    const reading = read ? readings[at]! : null;
+    const pv = read ? velocityPressurePa[at]! : null;
+    const v = read ? velocityMS[at]! : null;
+    const json: Record<string, unknown> = p.beyondProbeReach
+      ? { line: p.line, point: p.point, x_mm: p.x_mm, y_mm: p.y_mm, depth_mm: p.depth_mm, position_mm: p.position_mm, read_position_mm: p.read_position_mm, beyond_probe_reach: true, reading, velocity_pressure_pa: pv, velocity_m_s: v }
+      : { line: p.line, point: p.point, x_mm: p.x_mm, y_mm: p.y_mm, depth_mm: p.depth_mm, position_mm: p.position_mm, read_position_mm: p.read_position_mm, reading, velocity_pressure_pa: pv, velocity_m_s: v };
+    const f = filledAt?.[at];
+    if (f) {
+      json.filled_from = f.from;
+      json.filled_velocity_m_s = f.value;
+    }
+    out[j] = json;
   }
   return out;
 }
@@ -183,9 +230,14 @@ function pointJson(p: TraversePoint) {
 export function traverseRequestFromJson(d: TraverseInputJson): TraverseInput {
   const ins = d.instrument;
   return {
-    ...layoutRequest(d),
+    probeHeadDiameterM: toM(d.probe?.head_diameter_mm),
+    duct: toDuct(d.duct),
+    method: d.method,
     lines: d.lines ?? d.readings.length,
     pointsPerLine: d.points_per_line ?? d.readings[0]?.length,
+    straightUpstreamM: toM(d.straight_upstream_mm),
+    straightDownstreamM: toM(d.straight_downstream_mm),
+    portOffsetM: toM(d.port_offset_mm),
     air: {
       dryBulbC: d.air.dry_bulb_c,
       barometricPa: d.air.barometric_pa,
@@ -214,23 +266,30 @@ export function traverseRequestFromJson(d: TraverseInputJson): TraverseInput {
 }
 
 function runTraverse(input: unknown): Result<unknown> {
-  const sizes = calcInputSizeProblems("traverse", input);
-  if (sizes) return refuse("traverse", sizes);
-  const parsed = traverseInputSchema.safeParse(input);
-  if (!parsed.success) return invalid("traverse", parsed.error, input);
-  const d = parsed.data;
-  const r = reduceTraverse(traverseRequestFromJson(d));
-  const terms = (t: UncertaintyTerms) => ({
-    dimension: pct(t.dimension),
-    reading: pct(t.reading),
-    density: pct(t.density),
-    layout: pct(t.layout),
-    random: pct(t.random),
-    sampling: pct(t.sampling),
-  });
-  const flowUncertainty = (f: FlowUncertainty) => ({ expanded_pct: pct(f.expanded), combined_standard_pct: pct(f.combined), terms_pct: terms(f.terms) });
+  // The common, plainly valid input skips the schema; anything else gets the schema and its messages.
+  let d = plainlyValidTraverseInput(input);
+  if (!d) {
+    const sizes = calcInputSizeProblems("traverse", input);
+    if (sizes) return refuse("traverse", sizes);
+    const parsed = traverseInputSchema.safeParse(input);
+    if (!parsed.success) return invalid("traverse", parsed.error, input);
+    d = parsed.data;
+  }
+  return ok(traverseJson(d, reduceTraverse(traverseRequestFromJson(d))));
+}
+
+function termsJson(t: UncertaintyTerms) {
+  return { dimension: pct(t.dimension), reading: pct(t.reading), density: pct(t.density), layout: pct(t.layout), random: pct(t.random), sampling: pct(t.sampling) };
+}
+
+function flowUncertaintyJson(f: FlowUncertainty) {
+  return { expanded_pct: pct(f.expanded), combined_standard_pct: pct(f.combined), terms_pct: termsJson(f.terms) };
+}
+
+/** The traverse command's answer: the contract's keys, in its order. */
+function traverseJson(d: TraverseInputJson, r: TraverseResult) {
   const u = r.uncertainty;
-  return ok({
+  return {
     method: r.layout.method,
     rule: r.layout.rule,
     readings_kind: r.readingsKind,
@@ -261,7 +320,7 @@ function runTraverse(input: unknown): Result<unknown> {
       viscosity_pa_s: r.air.viscosityPaS,
     },
     probe: { coefficient: d.probe?.coefficient ?? 1, head_diameter_mm: mm01(r.layout.probeHeadDiameterM), reach_mm: mm01(r.layout.probeReachM) },
-    points: r.points.map(pointJson),
+    points: pointsJson(r),
     quality: {
       share_above_tenth_of_max: r.quality.shareAboveTenthOfMax,
       max_over_mean: finiteOrNull(r.quality.maxOverMean),
@@ -273,23 +332,23 @@ function runTraverse(input: unknown): Result<unknown> {
     },
     // Kept from the first contract: the expanded uncertainty (k = 2) of the standard flow, and its terms as standard uncertainties.
     uncertainty_pct: pct(u.expanded),
-    uncertainty_terms_pct: terms(u.terms),
+    uncertainty_terms_pct: termsJson(u.terms),
     uncertainty: {
       expanded_pct: pct(u.expanded),
       coverage_factor: u.coverageFactor,
       coverage: "k = 2, about 95 %",
       shown: formatExpandedUncertainty(u.expanded),
       combined_standard_pct: pct(u.combined),
-      terms_pct: terms(u.terms),
-      actual: flowUncertainty(u.actual),
-      standard: flowUncertainty(u.standard),
-      mass: flowUncertainty(u.mass),
+      terms_pct: termsJson(u.terms),
+      actual: flowUncertaintyJson(u.actual),
+      standard: flowUncertaintyJson(u.standard),
+      mass: flowUncertaintyJson(u.mass),
       sampling: { unevenness: finiteOrNull(u.sampling.unevenness), straight_run_factor: u.sampling.factor, points: u.sampling.pointCount },
     },
     layout_reason: r.layout.reason,
     beyond_probe_reach_count: r.layout.beyondReachCount,
     warnings: r.warnings,
-  });
+  };
 }
 
 function runNetwork(input: unknown): Result<unknown> {

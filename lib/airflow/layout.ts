@@ -514,7 +514,8 @@ function rememberedLayout(req: LayoutRequest): Layout {
     layoutCache.set(key, hit);
     return hit;
   }
-  const layout = deepFreeze(buildLayout(req));
+  // Built from a copy of the duct: freezing the layout must not freeze the caller's object.
+  const layout = deepFreeze(buildLayout({ ...req, duct: { ...req.duct } }));
   layoutCache.set(key, layout);
   if (layoutCache.size > LAYOUT_CACHE_SIZE) layoutCache.delete(layoutCache.keys().next().value as string);
   return layout;

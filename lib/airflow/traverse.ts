@@ -3,27 +3,30 @@
  * with plane quality, uncertainty and warnings. Velocities are averaged, never pressures: averaging
  * velocity pressures first over-reads by √(mean u²)/mean u − 1 (about +1 % on a fully developed profile).
  */
-import { airState, type AirConditions, type AirState } from "./air";
+import { airStateFor, type AirConditions, type AirState } from "./air";
 import { STANDARD_DENSITY_KG_M3 } from "./constants";
 import { EngineInputError } from "./errors";
 import { developedProfileOf, layoutErrorOnDevelopedProfile, planeMean, type FilledPoint, type GapFillSource, type IntegrationRule } from "./integrate";
-import { ductAreaM2, layoutFor, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest } from "./layout";
-import { assessPlane, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
+import { ductAreaM2, layoutFor, equivalentDiameterM, straightRunClass, type Layout, type LayoutRequest, type StraightRunClass } from "./layout";
+import { assessPlaneFromSums, LOW_VELOCITY_PRESSURE_PA, type PlaneQuality } from "./quality";
 import {
   COVERAGE_FACTOR,
   DEFAULT_INSTRUMENT_ACCURACY,
   densityRelativeUncertainty,
   formatExpandedUncertainty,
-  pressureReadingRelativeUncertainty,
-  samplingUncertainty,
-  traverseUncertainty,
-  velocityReadingRelativeUncertainty,
+  pressureReadingErrorBound,
+  readingRelativeFromSums,
+  samplingFromSpreads,
+  spreadFromSums,
+  traverseFlowUncertainties,
+  velocityOverProfile,
+  velocityReadingErrorBound,
   type FlowUncertainty,
   type InstrumentAccuracy,
   type SamplingUncertainty,
   type UncertaintyTerms,
 } from "./uncertainty";
-import { actualVelocityFromStandardMS, exceedsMachLimit, machNumber, velocityFromPressureMS, velocityPressureFromVelocityPa } from "./velocity";
+import { actualVelocityFromStandardMS, exceedsMachLimit, machNumber, pitotStateFactor, velocityFromPressureAtStateMS, velocityPressureFromVelocityPa } from "./velocity";
 
 /** What the readings are: pitot velocity pressures (Pa), or anemometer velocities (m/s), actual or standard. */
 export type ReadingsKind = "velocity_pressure" | "velocity_actual" | "velocity_standard";
@@ -65,6 +68,17 @@ export interface TraversePoint {
   filledVelocityMS: number | null;
 }
 
+/**
+ * Per-point values in layout order, at index line × pointsPerLine + point; NaN where the point was not
+ * read (readings are finite numbers or null, see lib/validation/calc.ts). Shared: do not change them.
+ */
+export interface TraversePointValues {
+  reading: readonly number[];
+  /** Read, or for anemometer readings the equivalent pitot velocity pressure (the same list as `reading` for pitot readings). */
+  velocityPressurePa: readonly number[];
+  velocityMS: readonly number[];
+}
+
 /** Uncertainty of the three flows; `combined`, `expanded` and `terms` at the top are the standard flow's. */
 export interface TraverseUncertainty extends FlowUncertainty {
   /** Combined relative standard uncertainty (k = 1) of the standard flow. */
@@ -97,7 +111,10 @@ export interface TraverseResult {
   /** Points not read whose gaps were filled from counterparts (empty when none, or when tributary areas were used). */
   filled: FilledPoint[];
   layout: Layout;
+  /** Per-point records, line by line (built on first use). */
   points: TraversePoint[];
+  /** The same per-point values in columns, for callers that would rather not build the records. */
+  pointValues: TraversePointValues;
   quality: PlaneQuality;
   uncertainty: TraverseUncertainty;
   warnings: string[];
@@ -146,6 +163,11 @@ function checkForwardFlow(readings: readonly (readonly (number | null)[])[], kin
       else if (v > 0) positive++;
     }
   }
+  refuseBackwardFlow(read, negative, positive, kind);
+}
+
+/** checkForwardFlow from the counts of readings read, negative and positive. */
+function refuseBackwardFlow(read: number, negative: number, positive: number, kind: ReadingsKind): void {
   if (read > 0 && negative / read > REVERSED_SHARE) {
     const what = kind === "velocity_pressure"
       ? "the total and static connections of the pitot tube (or the manometer ports) may be reversed: swap them and read again"
@@ -162,42 +184,110 @@ function checkForwardFlow(readings: readonly (readonly (number | null)[])[], kin
 }
 
 /**
- * Working lists of the points read, reused from one reduction to the next (allocating typed arrays on
- * every call costs more than the arithmetic). Only the functions reduceTraverse calls synchronously see
- * them, and none keeps them.
+ * A list of n NaN, to be filled with the values of the points read. Copied from a template kept per
+ * size, so every list starts as an array of doubles: storing a velocity then never changes its kind.
  */
-function newScratch(size: number) {
-  return { pvsAll: new Float64Array(size), velocitiesAll: new Float64Array(size), developedAll: new Float64Array(size), readingsAll: new Float64Array(size), indexAll: new Int32Array(size) };
-}
-let scratch = newScratch(128);
-function scratchFor(size: number): typeof scratch {
-  if (scratch.pvsAll.length < size) scratch = newScratch(size);
-  return scratch;
-}
-
-/** A reading → its velocity (m/s, never below 0), and the velocity pressure the plane checks use. */
-interface Converter {
-  velocity(reading: number): number;
-  /** The reading itself for pitot readings; for anemometers the equivalent Pv, keeping a reverse reading's sign. */
-  pressure(reading: number, velocity: number): number;
+const nanTemplates: number[][] = [];
+function nanList(n: number): number[] {
+  let template = nanTemplates[n];
+  if (!template) {
+    template = [];
+    for (let i = 0; i < n; i++) template.push(Number.NaN);
+    nanTemplates[n] = template;
+  }
+  return template.slice();
 }
 
-function converter(kind: ReadingsKind, rho: number, absolutePa: number, coefficient: number, instrumentDensityKgM3: number): Converter {
-  if (kind === "velocity_pressure") return { velocity: (pv) => velocityFromPressureMS(pv, rho, absolutePa, coefficient), pressure: (pv) => pv };
-  return {
-    velocity: (r) => Math.max(0, kind === "velocity_actual" ? r : actualVelocityFromStandardMS(r, rho, instrumentDensityKgM3)),
-    // Equivalent Pv keeps the sign so a reverse reading still counts as zero/negative in the plane check.
-    pressure: (r, v) => (r < 0 ? -velocityPressureFromVelocityPa(Math.abs(r), rho, absolutePa) : velocityPressureFromVelocityPa(v, rho, absolutePa)),
-  };
+/**
+ * The ratios of the points read to the developed profile, kept between the second and third pass. One
+ * list reused from one reduction to the next (nothing keeps it); grown when a grid is larger.
+ */
+let ratioList: number[] = nanList(128);
+function ratioListFor(n: number): number[] {
+  if (ratioList.length < n) ratioList = nanList(n);
+  return ratioList;
+}
+
+/** An anemometer reading's velocity, m/s, never below 0 (actual, or standard referred to the instrument's density). */
+function anemometerVelocityMS(kind: ReadingsKind, reading: number, rho: number, instrumentDensityKgM3: number): number {
+  return Math.max(0, kind === "velocity_actual" ? reading : actualVelocityFromStandardMS(reading, rho, instrumentDensityKgM3));
+}
+
+/** The pitot velocity pressure equivalent to an anemometer reading; a reverse reading keeps its sign, so it still counts as zero/negative in the plane check. */
+function equivalentPressurePa(reading: number, velocityMS: number, rho: number, absolutePa: number): number {
+  return reading < 0 ? -velocityPressureFromVelocityPa(Math.abs(reading), rho, absolutePa) : velocityPressureFromVelocityPa(velocityMS, rho, absolutePa);
+}
+
+/** What a reduction needs of a layout that does not depend on the readings, worked out once per layout object. */
+interface PlaneConstants {
+  areaM2: number;
+  hydraulicDiameterM: number;
+  straightRun: StraightRunClass;
+  /** The developed reference profile at every read position, and the complete layout's error on it. */
+  profile: readonly (readonly number[])[];
+  /** The same, flat: index line × pointsPerLine + point. */
+  profileFlat: number[];
+  completeError: number;
+}
+const planeConstants = new WeakMap<Layout, PlaneConstants>();
+
+/** Layouts from layoutFor are keyed by the whole request (duct and straight run included), so one layout object has one answer. */
+function planeConstantsOf(layout: Layout, input: TraverseInput): PlaneConstants {
+  let c = planeConstants.get(layout);
+  if (!c) {
+    const { grid, completeError } = developedProfileOf(layout);
+    const profileFlat: number[] = [];
+    for (let k = 0; k < layout.lineCount; k++) for (let i = 0; i < layout.pointsPerLine; i++) profileFlat.push(grid[k]?.[i] ?? 1);
+    c = { areaM2: ductAreaM2(input.duct), hydraulicDiameterM: equivalentDiameterM(input.duct), straightRun: straightRunClass(input), profile: grid, profileFlat, completeError };
+    planeConstants.set(layout, c);
+  }
+  return c;
+}
+
+/**
+ * The layout error of a grid with gaps depends only on the layout and which points were read: while a
+ * technician types, the same gaps come back on every recalculation, so the last answer is kept.
+ */
+let lastGapError: { layout: Layout; read: Uint8Array; error: number } | null = null;
+
+function layoutErrorWithGaps(layout: Layout, profile: readonly (readonly number[])[], pointReadings: readonly number[]): number {
+  const count = pointReadings.length;
+  const last = lastGapError;
+  if (last && last.layout === layout && last.read.length === count) {
+    let same = true;
+    for (let j = 0; j < count && same; j++) same = last.read[j] === (Number.isNaN(pointReadings[j]!) ? 0 : 1);
+    if (same) return last.error;
+  }
+  const read = new Uint8Array(count);
+  for (let j = 0; j < count; j++) read[j] = Number.isNaN(pointReadings[j]!) ? 0 : 1;
+  const perLine = layout.pointsPerLine;
+  const mask = layout.lines.map((line, k) => line.points.map((_, i) => read[k * perLine + i] === 1));
+  const error = layoutErrorOnDevelopedProfile(layout, profile, mask);
+  lastGapError = { layout, read, error };
+  return error;
+}
+
+const ACCURACY_KEYS = Object.keys(DEFAULT_INSTRUMENT_ACCURACY) as (keyof InstrumentAccuracy)[];
+
+/** Only the accuracies actually given replace the defaults (an explicit undefined must not). */
+function accuracyOf(given: Partial<InstrumentAccuracy> | undefined): InstrumentAccuracy {
+  if (given === undefined) return DEFAULT_INSTRUMENT_ACCURACY;
+  const accuracy = { ...DEFAULT_INSTRUMENT_ACCURACY };
+  for (const key of ACCURACY_KEYS) {
+    const value = given[key];
+    if (value !== undefined) accuracy[key] = value;
+  }
+  return accuracy;
 }
 
 /** One record per layout point, line by line: where it is, what was read, its velocity, and how a gap was filled. */
-function traversePoints(layout: Layout, readings: readonly (readonly (number | null)[])[], convert: Converter, filled: readonly FilledPoint[]): TraversePoint[] {
+function traversePoints(layout: Layout, values: TraversePointValues, filled: readonly FilledPoint[]): TraversePoint[] {
   const points: TraversePoint[] = [];
+  const perLine = layout.pointsPerLine;
   for (const line of layout.lines) {
     for (const p of line.points) {
-      const reading = readings[p.line]?.[p.point] ?? null;
-      const v = reading === null ? null : convert.velocity(reading);
+      const at = p.line * perLine + p.point;
+      const read = !Number.isNaN(values.reading[at]!);
       points.push({
         line: p.line,
         point: p.point,
@@ -207,22 +297,83 @@ function traversePoints(layout: Layout, readings: readonly (readonly (number | n
         positionM: p.positionM,
         readPositionM: p.readPositionM,
         beyondProbeReach: p.beyondProbeReach,
-        reading,
-        velocityPressurePa: reading === null || v === null ? null : convert.pressure(reading, v),
-        velocityMS: v,
+        reading: read ? values.reading[at]! : null,
+        velocityPressurePa: read ? values.velocityPressurePa[at]! : null,
+        velocityMS: read ? values.velocityMS[at]! : null,
         filledFrom: null,
         filledVelocityMS: null,
       });
     }
   }
   for (const f of filled) {
-    const point = points[f.line * layout.pointsPerLine + f.point];
+    const point = points[f.line * perLine + f.point];
     if (point) {
       point.filledFrom = f.from;
       point.filledVelocityMS = f.value;
     }
   }
   return points;
+}
+
+/**
+ * The result of a reduction. The per-point records (`points`) are built on first use from `pointValues`:
+ * callers that need flows only (continuity, summaries, the report's tables) do not pay for them. A class
+ * rather than an object literal with a getter, which costs more to create than the whole reduction.
+ */
+class Reduction implements TraverseResult {
+  declare air: AirState;
+  declare densityKgM3: number;
+  declare standardDensityKgM3: number;
+  declare instrumentStandardDensityKgM3: number | null;
+  declare readingsKind: ReadingsKind;
+  declare meanVelocityMS: number;
+  declare areaM2: number;
+  declare hydraulicDiameterM: number;
+  declare flowM3S: number;
+  declare standardFlowM3S: number;
+  declare massFlowKgS: number;
+  declare reynolds: number;
+  declare maxMach: number;
+  declare integrationRule: IntegrationRule;
+  declare filled: FilledPoint[];
+  declare layout: Layout;
+  declare pointValues: TraversePointValues;
+  declare quality: PlaneQuality;
+  declare uncertainty: TraverseUncertainty;
+  declare warnings: string[];
+  #points: TraversePoint[] | undefined;
+
+  constructor(r: Omit<TraverseResult, "points">) {
+    this.air = r.air;
+    this.densityKgM3 = r.densityKgM3;
+    this.standardDensityKgM3 = r.standardDensityKgM3;
+    this.instrumentStandardDensityKgM3 = r.instrumentStandardDensityKgM3;
+    this.readingsKind = r.readingsKind;
+    this.meanVelocityMS = r.meanVelocityMS;
+    this.areaM2 = r.areaM2;
+    this.hydraulicDiameterM = r.hydraulicDiameterM;
+    this.flowM3S = r.flowM3S;
+    this.standardFlowM3S = r.standardFlowM3S;
+    this.massFlowKgS = r.massFlowKgS;
+    this.reynolds = r.reynolds;
+    this.maxMach = r.maxMach;
+    this.integrationRule = r.integrationRule;
+    this.filled = r.filled;
+    this.layout = r.layout;
+    this.pointValues = r.pointValues;
+    this.quality = r.quality;
+    this.uncertainty = r.uncertainty;
+    this.warnings = r.warnings;
+    this.#points = undefined;
+  }
+
+  get points(): TraversePoint[] {
+    return (this.#points ??= traversePoints(this.layout, this.pointValues, this.filled));
+  }
+
+  set points(points: TraversePoint[]) {
+    this.#points = points;
+  }
 }
 
 /**
@@ -235,9 +386,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   const coefficient = input.probeCoefficient ?? 1;
   const standardDensityKgM3 = input.standardDensityKgM3 ?? STANDARD_DENSITY_KG_M3;
   const instrumentDensityKgM3 = input.instrumentStandardDensityKgM3 ?? standardDensityKgM3;
-  // Only the accuracies actually given replace the defaults (an explicit undefined must not).
-  const given = Object.entries(input.instrument ?? {}).filter(([, v]) => v !== undefined);
-  const accuracy: InstrumentAccuracy = { ...DEFAULT_INSTRUMENT_ACCURACY, ...Object.fromEntries(given) };
+  const accuracy = accuracyOf(input.instrument);
   const layout = layoutFor({
     duct: input.duct,
     method: input.method,
@@ -248,98 +397,176 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     portOffsetM: input.portOffsetM,
     probeHeadDiameterM: input.probeHeadDiameterM,
   });
-  if (input.readings.length !== layout.lineCount || input.readings.some((row) => row.length !== layout.pointsPerLine))
-    throw new RangeError(`readings must be ${layout.lineCount} lines of ${layout.pointsPerLine} values`);
-  checkForwardFlow(input.readings, kind);
-
-  const air = airState(input.air);
-  const rho = air.densityKgM3;
-  const warnings = [...layout.warnings, ...air.warnings];
-
-  // One pass over the points: velocities and the lists of points read that the checks use. The
-  // per-point records (`points`) are built from the same conversion when a caller first asks for them.
-  const { grid: profile, completeError } = developedProfileOf(layout);
   const perLine = layout.pointsPerLine;
-  const { pvsAll, velocitiesAll, developedAll, readingsAll, indexAll } = scratchFor(layout.lineCount * perLine);
-  const convert = converter(kind, rho, air.absolutePressurePa, coefficient, instrumentDensityKgM3);
+  let shapeMatches = input.readings.length === layout.lineCount;
+  for (let k = 0; shapeMatches && k < input.readings.length; k++) shapeMatches = input.readings[k]!.length === perLine;
+  if (!shapeMatches) throw new RangeError(`readings must be ${layout.lineCount} lines of ${perLine} values`);
+
+  let air: AirState;
+  try {
+    air = airStateFor(input.air);
+  } catch (error) {
+    // Backward readings are reported before impossible air, as they always were.
+    checkForwardFlow(input.readings, kind);
+    throw error;
+  }
+  const rho = air.densityKgM3;
+  const plane = planeConstantsOf(layout, input);
+  const profile = plane.profile;
+  const profileFlat = plane.profileFlat;
+
+  // Three passes over the points, all on plain locals (no objects: this is most of the engine's time).
+  // The first converts each reading once into the per-point values the result keeps (NaN where not
+  // read); it holds few values, so the calls of the pitot relation (logarithm and exponential) cost no
+  // more than in a bare loop. The second gathers, from those lists, the counts of the forward-flow check
+  // and the sums of the plane checks (assessPlane's PlaneSums), of the reading uncertainty (as
+  // pressureReadingRelativeUncertainty adds them) and of the ratios to the developed profile; the third,
+  // the deviations from the means. Backward readings are refused after the second pass: the conversion
+  // before it changes nothing a caller can see.
+  const pointCount = layout.lineCount * perLine;
+  const isPitot = kind === "velocity_pressure";
+  const absolutePa = air.absolutePressurePa;
+  const stateFactor = pitotStateFactor(rho, absolutePa);
+  const pointReadings = nanList(pointCount);
+  const pointVelocities = nanList(pointCount);
+  // A pitot reading is its own velocity pressure: one list serves both.
+  const pointPressures = isPitot ? pointReadings : nanList(pointCount);
   let readCount = 0;
-  let velocitySum = 0;
-  let maxVelocity = 0;
+  let negative = 0;
+  let positive = 0;
   for (let k = 0; k < layout.lineCount; k++) {
     const row = input.readings[k]!;
     for (let i = 0; i < perLine; i++) {
-      const reading = row[i] ?? null;
-      if (reading === null) continue;
-      const n = readCount++;
-      const v = convert.velocity(reading);
-      pvsAll[n] = convert.pressure(reading, v);
-      velocitiesAll[n] = v;
-      developedAll[n] = profile[k]?.[i] ?? 1;
-      readingsAll[n] = reading;
-      indexAll[n] = k * perLine + i;
-      velocitySum += v;
-      if (v > maxVelocity) maxVelocity = v;
+      const reading = row[i];
+      if (reading === null || reading === undefined) continue;
+      const at = k * perLine + i;
+      pointReadings[at] = reading;
+      if (isPitot) pointVelocities[at] = velocityFromPressureAtStateMS(reading, absolutePa, stateFactor, coefficient);
+      else {
+        const v = anemometerVelocityMS(kind, reading, rho, instrumentDensityKgM3);
+        pointVelocities[at] = v;
+        pointPressures[at] = equivalentPressurePa(reading, v, rho, absolutePa);
+      }
     }
   }
+  // The reading uncertainty's bound per reading: a manometer's ± % of reading + floor on Pv, relative to
+  // √Pv; an anemometer's on the velocity read, relative to the velocities.
+  const readingFraction = (isPitot ? accuracy.pressureAccuracyPct : accuracy.velocityAccuracyPct) / 100;
+  const readingFloor = isPitot ? accuracy.pressureFloorPa : accuracy.velocityFloorMS;
+  const ratios = ratioListFor(pointCount);
+  let maxPv = -Infinity;
+  let maxV = -Infinity;
+  let sumV = 0;
+  let zeroOrNegativeCount = 0;
+  let lowPressureCount = 0;
+  let errorSum = 0;
+  let scaleSum = 0;
+  let ratioSum = 0;
+  let n = 0;
+  for (let at = 0; at < pointCount; at++) {
+    const reading = pointReadings[at]!;
+    if (Number.isNaN(reading)) continue;
+    readCount++;
+    if (reading < 0) negative++;
+    else if (reading > 0) positive++;
+    const pv = pointPressures[at]!;
+    const v = pointVelocities[at]!;
+    if (pv > maxPv) maxPv = pv;
+    if (v > maxV) maxV = v;
+    sumV += v;
+    if (pv <= 0) zeroOrNegativeCount++;
+    else if (pv < LOW_VELOCITY_PRESSURE_PA) lowPressureCount++;
+    if (isPitot) {
+      errorSum += pressureReadingErrorBound(pv, readingFraction, readingFloor);
+      scaleSum += Math.sqrt(Math.max(pv, 0));
+    } else {
+      scaleSum += Math.max(reading, 0);
+      errorSum += velocityReadingErrorBound(reading, readingFraction, readingFloor);
+    }
+    const ratio = velocityOverProfile(v, profileFlat[at]!);
+    ratios[n++] = ratio;
+    ratioSum += ratio;
+  }
+  refuseBackwardFlow(readCount, negative, positive, kind);
   if (readCount === 0) throw new RangeError("readings: at least one point must be read");
-  const pvs = pvsAll.subarray(0, readCount);
-  const readVelocities = velocitiesAll.subarray(0, readCount);
-  const developed = developedAll.subarray(0, readCount);
-  const readings = readingsAll.subarray(0, readCount);
-  const pointCount = layout.lineCount * perLine;
+  // The third pass needs the largest Pv and the means: points above a tenth of that Pv, and the squared
+  // deviations of the velocities (plane check, flat spread) and of the ratios (developed spread).
+  const meanV = sumV / readCount;
+  const tenthOfMax = 0.1 * maxPv;
+  const ratioMean = ratioSum / readCount;
+  let aboveTenthCount = 0;
+  let squares = 0;
+  let ratioSquares = 0;
+  n = 0;
+  for (let at = 0; at < pointCount; at++) {
+    if (Number.isNaN(pointReadings[at]!)) continue;
+    if (pointPressures[at]! > tenthOfMax) aboveTenthCount++;
+    const d = pointVelocities[at]! - meanV;
+    squares += d * d;
+    const e = ratios[n++]! - ratioMean;
+    ratioSquares += e * e;
+  }
   const missing = pointCount - readCount;
+  // Copied by index: concat and for…of are slow on the frozen lists of shared layouts and air states.
+  const warnings: string[] = [];
+  for (let j = 0; j < layout.warnings.length; j++) warnings.push(layout.warnings[j]!);
+  for (let j = 0; j < air.warnings.length; j++) warnings.push(air.warnings[j]!);
 
   // A complete grid is planeMean's equal-weight case, its mean already summed above.
-  const { mean: meanVelocityMS, rule, filled } =
-    missing === 0
-      ? { mean: velocitySum / readCount, rule: "equal-weight" as const, filled: [] as FilledPoint[] }
-      : planeMean(layout, input.readings.map((row) => row.map((r) => (r === null ? null : convert.velocity(r)))));
-  if (missing > 0 && rule === "tributary-area")
-    warnings.push(`${plural(missing, "point was", "points were")} not read, too many to fill from their counterparts; the mean uses tributary areas around the points read instead of the method's own weights.`);
-  else if (missing > 0) {
-    const how = [...new Set(filled.map((f) => FILL_WORDS[f.from]))].join(", ");
-    warnings.push(`${plural(missing, "point was", "points were")} not read; the method's own weights were kept and each gap filled from ${how}.`);
+  let meanVelocityMS = sumV / readCount;
+  let rule: IntegrationRule = "equal-weight";
+  let filled: FilledPoint[] = [];
+  if (missing > 0) {
+    const grid = layout.lines.map((line, k) => line.points.map((_, i) => (Number.isNaN(pointReadings[k * perLine + i]!) ? null : pointVelocities[k * perLine + i]!)));
+    ({ mean: meanVelocityMS, rule, filled } = planeMean(layout, grid));
+    if (rule === "tributary-area")
+      warnings.push(`${plural(missing, "point was", "points were")} not read, too many to fill from their counterparts; the mean uses tributary areas around the points read instead of the method's own weights.`);
+    else {
+      const how = [...new Set(filled.map((f) => FILL_WORDS[f.from]))].join(", ");
+      warnings.push(`${plural(missing, "point was", "points were")} not read; the method's own weights were kept and each gap filled from ${how}.`);
+    }
   }
 
-  const areaM2 = ductAreaM2(input.duct);
-  const hydraulicDiameterM = equivalentDiameterM(input.duct);
+  const { areaM2, hydraulicDiameterM } = plane;
   const flowM3S = areaM2 * meanVelocityMS;
   const massFlowKgS = rho * flowM3S;
   const reynolds = (rho * meanVelocityMS * hydraulicDiameterM) / air.viscosityPaS;
+  const maxVelocity = Math.max(0, maxV);
   const maxMach = machNumber(maxVelocity, air.dryBulbC);
 
-  const quality = assessPlane(pvs, readVelocities, { readAsPressures: kind === "velocity_pressure" });
+  const quality = assessPlaneFromSums({ count: readCount, maxPv, maxV, sumV, zeroOrNegativeCount, lowPressureCount, aboveTenthCount, squares }, isPitot);
   if (quality.zeroOrNegativeCount > 0)
     warnings.push(`${plural(quality.zeroOrNegativeCount, "point reads", "points read")} zero or negative; counted as zero velocity (reverse flow or swirl at the plane?).`);
   if (quality.lowPressureCount > 0)
     warnings.push(`${plural(quality.lowPressureCount, "point reads", "points read")} under ${LOW_VELOCITY_PRESSURE_PA} Pa, where the gauge's own error is large.`);
-  for (let n = 0; n < readCount; n++) {
-    const v = readVelocities[n]!;
-    if (meanVelocityMS > 0 && v > OUTLIER_OVER_MEAN * meanVelocityMS) {
-      const at = indexAll[n]!;
-      warnings.push(`Line ${Math.floor(at / perLine) + 1} point ${(at % perLine) + 1} reads ${v.toFixed(1)} m/s, over ${OUTLIER_OVER_MEAN} × the mean ${meanVelocityMS.toFixed(1)} m/s: check the reading and the probe.`);
+  if (meanVelocityMS > 0 && maxVelocity > OUTLIER_OVER_MEAN * meanVelocityMS) {
+    for (let at = 0; at < pointCount; at++) {
+      const v = pointVelocities[at]!;
+      if (v > OUTLIER_OVER_MEAN * meanVelocityMS) {
+        warnings.push(`Line ${Math.floor(at / perLine) + 1} point ${(at % perLine) + 1} reads ${v.toFixed(1)} m/s, over ${OUTLIER_OVER_MEAN} × the mean ${meanVelocityMS.toFixed(1)} m/s: check the reading and the probe.`);
+      }
     }
   }
   if (exceedsMachLimit(maxMach)) warnings.push(`Mach ${maxMach.toFixed(2)} at the fastest point is beyond the 0.25 limit of the pitot-static method (ISO 3966).`);
   if (meanVelocityMS > 0 && reynolds < LAMINAR_REYNOLDS) warnings.push(`Reynolds number ${Math.round(reynolds)} is under ${LAMINAR_REYNOLDS}: the flow may be laminar, and the layouts assume turbulent flow.`);
   if (quality.verdict !== "good") warnings.push(`Plane quality is ${quality.verdict}: ${quality.reasons.join(" ")}`);
 
-  // The developed reference profile at every read position serves both the layout term and the sampling term.
-  const mask = missing > 0 ? layout.lines.map((line, k) => line.points.map((_, i) => input.readings[k]?.[i] !== null)) : undefined;
-  const sampling = samplingUncertainty(readVelocities, developed, straightRunClass(input));
-  const common = {
-    duct: input.duct,
-    accuracy,
-    readingRelative: kind === "velocity_pressure" ? pressureReadingRelativeUncertainty(pvs, accuracy) : velocityReadingRelativeUncertainty(readings, accuracy),
-    densityRelative: densityRelativeUncertainty(input.air, accuracy),
-    layoutError: mask ? layoutErrorOnDevelopedProfile(layout, profile, mask) : completeError,
-    pointCount: readCount,
-    samplingRelative: sampling.relative,
-  };
-  const exponents = DENSITY_EXPONENT[kind];
-  const actual = traverseUncertainty(common, exponents.actual);
-  const standard = traverseUncertainty(common, exponents.standard);
-  const mass = traverseUncertainty(common, exponents.mass);
+  // The developed reference profile at every read position serves both the layout term and the sampling
+  // term. The spread about a flat profile is the plane check's coefficient of variation.
+  const sampling = samplingFromSpreads(readCount < 2 ? 0 : quality.cv, spreadFromSums(readCount, ratioSum, ratioSquares), readCount, plane.straightRun);
+  const flows = traverseFlowUncertainties(
+    {
+      duct: input.duct,
+      accuracy,
+      readingRelative: readingRelativeFromSums(errorSum, scaleSum),
+      densityRelative: densityRelativeUncertainty(input.air, accuracy),
+      layoutError: missing > 0 ? layoutErrorWithGaps(layout, profile, pointReadings) : plane.completeError,
+      pointCount: readCount,
+      samplingRelative: sampling.relative,
+    },
+    DENSITY_EXPONENT[kind],
+  );
+  const { actual, standard, mass } = flows;
   const uncertainty: TraverseUncertainty = {
     terms: standard.terms,
     combined: standard.combined,
@@ -354,10 +581,7 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
   if (!(worst <= HIGH_EXPANDED_UNCERTAINTY))
     warnings.push(`Expanded uncertainty of the flow is high, up to ${formatExpandedUncertainty(worst)}; see the quality reasons, the number of points and the instrument accuracy.`);
 
-  // The records are built on first use from a copy of the readings (the caller may reuse its grid).
-  const readingsCopy = input.readings.map((row) => row.slice());
-  let points: TraversePoint[] | undefined;
-  return {
+  return new Reduction({
     air,
     densityKgM3: rho,
     standardDensityKgM3,
@@ -374,12 +598,9 @@ export function reduceTraverse(input: TraverseInput): TraverseResult {
     integrationRule: rule,
     filled,
     layout,
-    get points() {
-      points ??= traversePoints(layout, readingsCopy, convert, filled);
-      return points;
-    },
+    pointValues: { reading: pointReadings, velocityPressurePa: pointPressures, velocityMS: pointVelocities },
     quality,
     uncertainty,
     warnings,
-  };
+  });
 }

@@ -107,7 +107,12 @@ export interface UncertaintyTerms {
 
 /** Root-sum-square of relative terms (GUM §5.1.2, uncorrelated inputs). All fractions, e.g. 0.01 = 1 %. */
 export function combineRelative(terms: UncertaintyTerms): number {
-  return Math.hypot(terms.dimension, terms.reading, terms.density, terms.layout, terms.random, terms.sampling);
+  const { dimension, reading, density, layout, random, sampling } = terms;
+  // The terms are fractions, far from overflow or underflow, so the plain root-sum-square is exact to
+  // rounding (Math.hypot costs more than the rest of the uncertainty); Math.hypot only for the rare
+  // Infinity/NaN mix, where it answers Infinity.
+  const sum = dimension * dimension + reading * reading + density * density + layout * layout + random * random + sampling * sampling;
+  return Number.isFinite(sum) ? Math.sqrt(sum) : Math.hypot(dimension, reading, density, layout, random, sampling);
 }
 
 /**
@@ -124,9 +129,10 @@ export function formatExpandedUncertainty(relative: number, options: { digits?: 
 
 /** Relative uncertainty of the area: 2·u_D/D for round ducts, √((u_W/W)² + (u_H/H)²) for rectangular. */
 export function areaRelativeUncertainty(duct: Duct, dimensionAccuracyM: number): number {
-  return duct.shape === "round"
-    ? (2 * dimensionAccuracyM) / duct.diameterM
-    : Math.hypot(dimensionAccuracyM / duct.widthM, dimensionAccuracyM / duct.heightM);
+  if (duct.shape === "round") return (2 * dimensionAccuracyM) / duct.diameterM;
+  const w = dimensionAccuracyM / duct.widthM;
+  const h = dimensionAccuracyM / duct.heightM;
+  return Math.sqrt(w * w + h * h);
 }
 
 /**
@@ -136,28 +142,51 @@ export function areaRelativeUncertainty(duct: Duct, dimensionAccuracyM: number):
  * point, so the point errors are summed (fully correlated) before dividing by the sum of velocities.
  */
 export function pressureReadingRelativeUncertainty(velocityPressuresPa: ArrayLike<number>, accuracy: Pick<InstrumentAccuracy, "pressureAccuracyPct" | "pressureFloorPa">): number {
+  const fraction = accuracy.pressureAccuracyPct / 100;
   let errorSum = 0;
-  let velocitySum = 0;
+  let rootSum = 0;
   for (let i = 0; i < velocityPressuresPa.length; i++) {
     const pv = velocityPressuresPa[i]!;
-    const positive = Math.max(pv, 0);
-    const u = (accuracy.pressureAccuracyPct / 100) * Math.abs(pv) + accuracy.pressureFloorPa;
-    errorSum += (Math.sqrt(positive + u) - Math.sqrt(Math.max(positive - u, 0))) / 2;
-    velocitySum += Math.sqrt(positive);
+    errorSum += pressureReadingErrorBound(pv, fraction, accuracy.pressureFloorPa);
+    rootSum += Math.sqrt(Math.max(pv, 0));
   }
-  return velocitySum > 0 ? errorSum / velocitySum : Number.POSITIVE_INFINITY;
+  return readingRelativeFromSums(errorSum, rootSum);
+}
+
+/**
+ * One reading's share of pressureReadingRelativeUncertainty: (√(Pv⁺ + u) − √(max(Pv⁺ − u, 0)))/2 with
+ * u = fraction·|Pv| + floor (fraction = % of reading / 100).
+ */
+export function pressureReadingErrorBound(pv: number, fraction: number, floorPa: number): number {
+  const positive = Math.max(pv, 0);
+  const u = fraction * Math.abs(pv) + floorPa;
+  return (Math.sqrt(positive + u) - Math.sqrt(Math.max(positive - u, 0))) / 2;
+}
+
+/**
+ * A reading uncertainty from its sums over the readings: of the error bounds (pressureReadingErrorBound or
+ * velocityReadingErrorBound) and of what they are relative to (√Pv⁺, or the velocities v⁺).
+ */
+export function readingRelativeFromSums(errorSum: number, rootSum: number): number {
+  return rootSum > 0 ? errorSum / rootSum : Number.POSITIVE_INFINITY;
 }
 
 /** Relative error bound of the mean velocity from anemometer velocities (m/s) of ±(pct % + floor m/s), correlated as above. */
 export function velocityReadingRelativeUncertainty(velocitiesMS: ArrayLike<number>, accuracy: Pick<InstrumentAccuracy, "velocityAccuracyPct" | "velocityFloorMS">): number {
+  const fraction = accuracy.velocityAccuracyPct / 100;
+  let errorSum = 0;
   let sum = 0;
-  let err = 0;
   for (let i = 0; i < velocitiesMS.length; i++) {
     const v = velocitiesMS[i]!;
     sum += Math.max(v, 0);
-    err += (accuracy.velocityAccuracyPct / 100) * Math.abs(v) + accuracy.velocityFloorMS;
+    errorSum += velocityReadingErrorBound(v, fraction, accuracy.velocityFloorMS);
   }
-  return sum > 0 ? err / sum : Number.POSITIVE_INFINITY;
+  return readingRelativeFromSums(errorSum, sum);
+}
+
+/** One anemometer reading's share of velocityReadingRelativeUncertainty: fraction·|v| + floor (fraction = % of reading / 100). */
+export function velocityReadingErrorBound(velocityMS: number, fraction: number, floorMS: number): number {
+  return fraction * Math.abs(velocityMS) + floorMS;
 }
 
 /**
@@ -167,19 +196,49 @@ export function velocityReadingRelativeUncertainty(velocitiesMS: ArrayLike<numbe
  * (GUM §5.1.3 allows numerical sensitivity coefficients), one-sided where a step leaves the valid range.
  */
 export function densityRelativeUncertainty(conditions: AirConditions, accuracy: InstrumentAccuracy): number {
-  // A pure function of its inputs, asked again with the same air on every recalculation of a traverse.
+  // A pure function of its inputs, asked again with the same air on every recalculation of a traverse:
+  // the last question is compared field by field, older ones are looked up by key.
+  const last = lastDensityUncertainty;
+  if (last && sameDensityInputs(last.conditions, last.accuracy, conditions, accuracy)) return last.value;
   const key = `${conditions.dryBulbC}|${conditions.barometricPa}|${conditions.altitudeM}|${conditions.staticPa}|${conditions.relativeHumidityPct}|${conditions.wetBulbC}|${accuracy.temperatureAccuracyC}|${accuracy.barometricAccuracyPa}|${accuracy.pressureAccuracyPct}|${accuracy.pressureFloorPa}|${accuracy.humidityAccuracyPct}`;
-  const known = densityUncertaintyMemo.get(key);
-  if (known !== undefined) return known;
-  const value = computeDensityRelativeUncertainty(conditions, accuracy);
-  densityUncertaintyMemo.set(key, value);
-  if (densityUncertaintyMemo.size > DENSITY_MEMO_SIZE) densityUncertaintyMemo.delete(densityUncertaintyMemo.keys().next().value as string);
+  let value = densityUncertaintyMemo.get(key);
+  if (value === undefined) {
+    value = computeDensityRelativeUncertainty(conditions, accuracy);
+    densityUncertaintyMemo.set(key, value);
+    if (densityUncertaintyMemo.size > DENSITY_MEMO_SIZE) densityUncertaintyMemo.delete(densityUncertaintyMemo.keys().next().value as string);
+  }
+  const { dryBulbC, barometricPa, altitudeM, staticPa, relativeHumidityPct, wetBulbC } = conditions;
+  const { temperatureAccuracyC, barometricAccuracyPa, pressureAccuracyPct, pressureFloorPa, humidityAccuracyPct } = accuracy;
+  lastDensityUncertainty = {
+    conditions: { dryBulbC, barometricPa, altitudeM, staticPa, relativeHumidityPct, wetBulbC },
+    accuracy: { temperatureAccuracyC, barometricAccuracyPa, pressureAccuracyPct, pressureFloorPa, humidityAccuracyPct },
+    value,
+  };
   return value;
 }
 
 /** Distinct air states remembered by densityRelativeUncertainty (oldest dropped first). */
 const DENSITY_MEMO_SIZE = 64;
 const densityUncertaintyMemo = new Map<string, number>();
+type DensityAccuracy = Pick<InstrumentAccuracy, "temperatureAccuracyC" | "barometricAccuracyPa" | "pressureAccuracyPct" | "pressureFloorPa" | "humidityAccuracyPct">;
+let lastDensityUncertainty: { conditions: AirConditions; accuracy: DensityAccuracy; value: number } | null = null;
+
+/** The same inputs as far as the density uncertainty goes (=== as the key's text does, which also equates 0 and −0). */
+function sameDensityInputs(c0: AirConditions, a0: DensityAccuracy, c: AirConditions, a: DensityAccuracy): boolean {
+  return (
+    c0.dryBulbC === c.dryBulbC &&
+    c0.barometricPa === c.barometricPa &&
+    c0.altitudeM === c.altitudeM &&
+    c0.staticPa === c.staticPa &&
+    c0.relativeHumidityPct === c.relativeHumidityPct &&
+    c0.wetBulbC === c.wetBulbC &&
+    a0.temperatureAccuracyC === a.temperatureAccuracyC &&
+    a0.barometricAccuracyPa === a.barometricAccuracyPa &&
+    a0.pressureAccuracyPct === a.pressureAccuracyPct &&
+    a0.pressureFloorPa === a.pressureFloorPa &&
+    a0.humidityAccuracyPct === a.humidityAccuracyPct
+  );
+}
 
 function computeDensityRelativeUncertainty(conditions: AirConditions, accuracy: InstrumentAccuracy): number {
   const rho = densityOf(conditions);
@@ -238,13 +297,44 @@ export interface FlowUncertainty {
 
 /** The terms, combined standard and expanded (k = 2) relative uncertainty of one traverse flow. */
 export function traverseUncertainty(input: TraverseUncertaintyInput, densitySensitivity = input.densitySensitivity ?? 0.5): FlowUncertainty {
-  const terms: UncertaintyTerms = {
+  return flowUncertainty(sharedTerms(input), densitySensitivity, input.densityRelative);
+}
+
+/**
+ * traverseUncertainty of the actual, standard and mass flow of one traverse, each with its exponent of
+ * density: the terms they share (all but density) are worked out once.
+ */
+export function traverseFlowUncertainties(
+  input: TraverseUncertaintyInput,
+  densitySensitivity: { actual: number; standard: number; mass: number },
+): { actual: FlowUncertainty; standard: FlowUncertainty; mass: FlowUncertainty } {
+  const shared = sharedTerms(input);
+  return {
+    actual: flowUncertainty(shared, densitySensitivity.actual, input.densityRelative),
+    standard: flowUncertainty(shared, densitySensitivity.standard, input.densityRelative),
+    mass: flowUncertainty(shared, densitySensitivity.mass, input.densityRelative),
+  };
+}
+
+/** The terms that do not depend on the flow's exponent of density. */
+function sharedTerms(input: TraverseUncertaintyInput): Omit<UncertaintyTerms, "density"> {
+  return {
     dimension: areaRelativeUncertainty(input.duct, input.accuracy.dimensionAccuracyM) / SQRT3,
     reading: input.readingRelative / SQRT3,
-    density: (Math.abs(densitySensitivity) * input.densityRelative) / SQRT3,
     layout: Math.abs(input.layoutError) / SQRT3,
     random: input.pointCount > 0 ? input.accuracy.repeatabilityPct / 100 / Math.sqrt(input.pointCount) : 0,
     sampling: input.samplingRelative ?? 0,
+  };
+}
+
+function flowUncertainty(shared: Omit<UncertaintyTerms, "density">, densitySensitivity: number, densityRelative: number): FlowUncertainty {
+  const terms: UncertaintyTerms = {
+    dimension: shared.dimension,
+    reading: shared.reading,
+    density: (Math.abs(densitySensitivity) * densityRelative) / SQRT3,
+    layout: shared.layout,
+    random: shared.random,
+    sampling: shared.sampling,
   };
   const combined = combineRelative(terms);
   return { terms, combined, expanded: COVERAGE_FACTOR * combined, coverageFactor: COVERAGE_FACTOR };
@@ -263,21 +353,35 @@ export interface SamplingUncertainty {
   pointCount: number;
 }
 
-/** Coefficient of variation of values[i] / scale[i] (scale omitted: of the values themselves). */
-function coefficientOfVariation(values: ArrayLike<number>, scale?: ArrayLike<number>): number {
+/** Coefficient of variation of the values (sample standard deviation over the mean); 0 for fewer than two. */
+export function coefficientOfVariation(values: ArrayLike<number>): number {
   const n = values.length;
   if (n < 2) return 0;
-  const at = (i: number) => (scale ? values[i]! / Math.max(scale[i] ?? 1, 1e-6) : values[i]!);
   let sum = 0;
-  for (let i = 0; i < n; i++) sum += at(i);
+  for (let i = 0; i < n; i++) sum += values[i]!;
   const mean = sum / n;
-  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
   let ss = 0;
   for (let i = 0; i < n; i++) {
-    const d = at(i) - mean;
+    const d = values[i]! - mean;
     ss += d * d;
   }
-  return Math.sqrt(ss / (n - 1)) / mean;
+  return spreadFromSums(n, sum, ss);
+}
+
+/**
+ * coefficientOfVariation from the sums over the values: `sum` of them, and `squares` of their deviations
+ * from sum/count (for a caller that gathers them while walking the values for something else).
+ */
+export function spreadFromSums(count: number, sum: number, squares: number): number {
+  if (count < 2) return 0;
+  const mean = sum / count;
+  if (!(mean > 0)) return Number.POSITIVE_INFINITY;
+  return Math.sqrt(squares / (count - 1)) / mean;
+}
+
+/** A velocity over the developed profile's value at its point (each value taken as at least 1e-6): the sampling term's shaped spread is the CV of these. */
+export function velocityOverProfile(velocityMS: number, developed: number): number {
+  return velocityMS / Math.max(developed, 1e-6);
 }
 
 /**
@@ -287,10 +391,19 @@ function coefficientOfVariation(values: ArrayLike<number>, scale?: ArrayLike<num
  */
 export function samplingUncertainty(velocitiesMS: ArrayLike<number>, developed: ArrayLike<number>, straightRun: StraightRun = "unknown"): SamplingUncertainty {
   const n = velocitiesMS.length;
+  if (n === 0) return samplingFromSpreads(Number.POSITIVE_INFINITY, Number.POSITIVE_INFINITY, 0, straightRun);
+  const ratios = new Array<number>(n);
+  for (let i = 0; i < n; i++) ratios[i] = velocityOverProfile(velocitiesMS[i]!, developed[i] ?? 1);
+  return samplingFromSpreads(coefficientOfVariation(velocitiesMS), coefficientOfVariation(ratios), n, straightRun);
+}
+
+/**
+ * samplingUncertainty from the two spreads of the same N points: about a flat profile (the CV of the
+ * velocities) and about the developed one (the CV of velocityOverProfile; see spreadFromSums).
+ */
+export function samplingFromSpreads(flat: number, shaped: number, pointCount: number, straightRun: StraightRun = "unknown"): SamplingUncertainty {
   const factor = straightRun === "unsuitable" ? UNSUITABLE_RUN_SAMPLING_FACTOR : straightRun === "short" ? SHORT_RUN_SAMPLING_FACTOR : 1;
-  if (n === 0) return { relative: Number.POSITIVE_INFINITY, unevenness: Number.POSITIVE_INFINITY, factor, pointCount: 0 };
-  const flat = coefficientOfVariation(velocitiesMS);
-  const shaped = coefficientOfVariation(velocitiesMS, developed);
+  if (pointCount === 0) return { relative: Number.POSITIVE_INFINITY, unevenness: Number.POSITIVE_INFINITY, factor, pointCount: 0 };
   const unevenness = Math.min(flat, shaped);
-  return { relative: (factor * unevenness) / Math.sqrt(n), unevenness, factor, pointCount: n };
+  return { relative: (factor * unevenness) / Math.sqrt(pointCount), unevenness, factor, pointCount };
 }

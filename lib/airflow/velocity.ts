@@ -20,10 +20,27 @@ export function velocityFromPressureMS(
   coefficient = 1,
 ): number {
   if (!(velocityPressurePa > 0)) return 0;
-  const exponent = (KAPPA_AIR - 1) / KAPPA_AIR;
+  return velocityFromPressureAtStateMS(velocityPressurePa, absolutePressurePa, pitotStateFactor(densityKgM3, absolutePressurePa), coefficient);
+}
+
+/** 2κ/(κ−1) and (κ−1)/κ of the isentropic pitot relation. */
+const PITOT_FACTOR = (2 * KAPPA_AIR) / (KAPPA_AIR - 1);
+const PITOT_EXPONENT = (KAPPA_AIR - 1) / KAPPA_AIR;
+
+/** The part of velocityFromPressureMS that depends only on the air: 2κ/(κ−1)·p/ρ (ρ kg/m³, p absolute Pa). */
+export function pitotStateFactor(densityKgM3: number, absolutePressurePa: number): number {
+  return PITOT_FACTOR * (absolutePressurePa / densityKgM3);
+}
+
+/**
+ * velocityFromPressureMS with its air-state factor worked out once (pitotStateFactor): the same arithmetic
+ * and the same result, for many readings at one state. Pv ≤ 0 gives 0.
+ */
+export function velocityFromPressureAtStateMS(velocityPressurePa: number, absolutePressurePa: number, stateFactor: number, coefficient = 1): number {
+  if (!(velocityPressurePa > 0)) return 0;
   // expm1/log1p keep full precision when Pv/p is tiny (the usual case: ~1e-4).
-  const bracket = Math.expm1(exponent * Math.log1p(velocityPressurePa / absolutePressurePa));
-  return coefficient * Math.sqrt(((2 * KAPPA_AIR) / (KAPPA_AIR - 1)) * (absolutePressurePa / densityKgM3) * bracket);
+  const bracket = Math.expm1(PITOT_EXPONENT * Math.log1p(velocityPressurePa / absolutePressurePa));
+  return coefficient * Math.sqrt(stateFactor * bracket);
 }
 
 /** Velocity, m/s, by the incompressible relation V = C·√(2·Pv/ρ); over-reads by about Pv/(4κp). Pv ≤ 0 gives 0. */

@@ -7,7 +7,7 @@
 import { runCalcCommand, traverseRequestFromJson } from "@/lib/airflow/commands";
 import { reduceTraverse, type TraverseResult } from "@/lib/airflow/traverse";
 import type { InstrumentAccuracy } from "@/lib/airflow/uncertainty";
-import { traverseInputSchema } from "@/lib/validation/calc";
+import { plainlyValidTraverseInput, traverseInputSchema } from "@/lib/validation/calc";
 
 export type ReadingsKindName = "velocity_pressure" | "velocity_actual" | "velocity_standard";
 export type Grid = (number | null)[][];
@@ -164,10 +164,15 @@ export function engineResultFor(source: TraverseEngineSource, readings: Grid): {
   const missing = missingAir(source.air);
   if (missing) return { ok: false, message: missing };
   if (readings.every((row) => row.every((v) => v === null))) return { ok: false, message: "No readings yet." };
-  const parsed = traverseInputSchema.safeParse(traverseCalcInput(source, readings));
-  if (!parsed.success) return { ok: false, message: `The stored traverse cannot be reduced: ${parsed.error.issues[0]?.message ?? "invalid input"}.` };
+  const input = traverseCalcInput(source, readings);
+  let d = plainlyValidTraverseInput(input);
+  if (!d) {
+    const parsed = traverseInputSchema.safeParse(input);
+    if (!parsed.success) return { ok: false, message: `The stored traverse cannot be reduced: ${parsed.error.issues[0]?.message ?? "invalid input"}.` };
+    d = parsed.data;
+  }
   try {
-    return { ok: true, result: reduceTraverse(traverseRequestFromJson(parsed.data)) };
+    return { ok: true, result: reduceTraverse(traverseRequestFromJson(d)) };
   } catch (err) {
     return { ok: false, message: err instanceof Error ? err.message : "The readings could not be reduced." };
   }

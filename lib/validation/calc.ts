@@ -24,12 +24,57 @@ export function describeValue(value: unknown): string {
   return typeof value === "object" ? "an object" : String(value);
 }
 
-function ranged(min: number, max: number, unit: string, opts: { integer?: boolean } = {}) {
-  const allowed = `${opts.integer ? "a whole number" : "a number"} from ${min} to ${max}${unit ? ` ${unit}` : ""}`;
+/** The allowed range of a number field (inclusive), shared by the schemas and plainlyValidTraverseInput. */
+interface Bounds {
+  min: number;
+  max: number;
+  integer?: boolean;
+}
+
+function ranged({ min, max, integer }: Bounds, unit: string) {
+  const allowed = `${integer ? "a whole number" : "a number"} from ${min} to ${max}${unit ? ` ${unit}` : ""}`;
   const message = (iss: { input?: unknown }) => `must be ${allowed}; got ${describeValue(iss.input)}`;
   const base = z.number({ error: message }).min(min, { error: message }).max(max, { error: message });
-  return opts.integer ? base.int({ error: message }) : base;
+  return integer ? base.int({ error: message }) : base;
 }
+
+/** Within bounds: a finite number (NaN and ±Infinity fail the comparisons), whole when the bounds say so. */
+function within(value: unknown, { min, max, integer }: Bounds): boolean {
+  return typeof value === "number" && value >= min && value <= max && (!integer || Number.isInteger(value));
+}
+
+/** Inside duct dimensions, mm. */
+const DUCT_MM: Bounds = { min: 50, max: 10_000 };
+const LAYOUT_BOUNDS = {
+  lines: { min: 1, max: 100, integer: true },
+  points_per_line: { min: 2, max: 100, integer: true },
+  straight_upstream_mm: { min: 0, max: 1_000_000 },
+  straight_downstream_mm: { min: 0, max: 1_000_000 },
+  port_offset_mm: { min: 0, max: 1_000 },
+} satisfies Record<string, Bounds>;
+const AIR_BOUNDS = {
+  dry_bulb_c: { min: -40, max: 120 },
+  barometric_pa: { min: 50_000, max: 110_000 },
+  altitude_m: { min: -500, max: 5_000 },
+  relative_humidity_pct: { min: 0, max: 100 },
+  wet_bulb_c: { min: -40, max: 120 },
+} satisfies Record<string, Bounds>;
+/** Duct static pressure, gauge Pa. */
+const STATIC_PA: Bounds = { min: -10_000, max: 10_000 };
+const PROBE_BOUNDS = { coefficient: { min: 0.5, max: 1.2 }, head_diameter_mm: { min: 1, max: 50 } } satisfies Record<string, Bounds>;
+const STANDARD_DENSITY: Bounds = { min: 1.0, max: 1.3 };
+const INSTRUMENT_BOUNDS = {
+  pressure_accuracy_pct: { min: 0, max: 50 },
+  pressure_floor_pa: { min: 0, max: 100 },
+  temperature_accuracy_c: { min: 0, max: 10 },
+  barometric_accuracy_pa: { min: 0, max: 10_000 },
+  dimension_accuracy_mm: { min: 0, max: 100 },
+  humidity_accuracy_pct: { min: 0, max: 50 },
+  velocity_accuracy_pct: { min: 0, max: 50 },
+  velocity_floor_m_s: { min: 0, max: 5 },
+  repeatability_pct: { min: 0, max: 50 },
+  standard_density_kg_m3: STANDARD_DENSITY,
+} satisfies Record<string, Bounds>;
 
 const shapeMessage = (iss: { code?: string; input?: unknown }) =>
   iss.code === "invalid_union"
@@ -40,8 +85,8 @@ const shapeMessage = (iss: { code?: string; input?: unknown }) =>
 export const ductSchema = z.discriminatedUnion(
   "shape",
   [
-    z.strictObject({ shape: z.literal("round"), diameter_mm: ranged(50, 10_000, "mm") }),
-    z.strictObject({ shape: z.literal("rectangular"), width_mm: ranged(50, 10_000, "mm"), height_mm: ranged(50, 10_000, "mm") }),
+    z.strictObject({ shape: z.literal("round"), diameter_mm: ranged(DUCT_MM, "mm") }),
+    z.strictObject({ shape: z.literal("rectangular"), width_mm: ranged(DUCT_MM, "mm"), height_mm: ranged(DUCT_MM, "mm") }),
   ],
   { error: shapeMessage },
 );
@@ -53,11 +98,11 @@ export const methodSchema = z.enum(["equal-area", "log-linear"], {
 const layoutFields = {
   duct: ductSchema,
   method: methodSchema,
-  lines: ranged(1, 100, "", { integer: true }).optional(),
-  points_per_line: ranged(2, 100, "", { integer: true }).optional(),
-  straight_upstream_mm: ranged(0, 1_000_000, "mm").optional(),
-  straight_downstream_mm: ranged(0, 1_000_000, "mm").optional(),
-  port_offset_mm: ranged(0, 1_000, "mm").optional(),
+  lines: ranged(LAYOUT_BOUNDS.lines, "").optional(),
+  points_per_line: ranged(LAYOUT_BOUNDS.points_per_line, "").optional(),
+  straight_upstream_mm: ranged(LAYOUT_BOUNDS.straight_upstream_mm, "mm").optional(),
+  straight_downstream_mm: ranged(LAYOUT_BOUNDS.straight_downstream_mm, "mm").optional(),
+  port_offset_mm: ranged(LAYOUT_BOUNDS.port_offset_mm, "mm").optional(),
 };
 
 const topLevel = (command: string) => ({
@@ -70,11 +115,11 @@ const objectOf = (what: string) => ({
 });
 
 /** Probe head outside diameter, mm: judges which points near a wall the probe can reach (default 8 mm, common practice). */
-const headDiameterSchema = ranged(1, 50, "mm (outside diameter of the probe head)");
+const headDiameterSchema = ranged(PROBE_BOUNDS.head_diameter_mm, "mm (outside diameter of the probe head)");
 
 /** The probe: its coefficient C (1.0 for a standard pitot-static tube, common practice) and head size. */
 export const probeSchema = z.strictObject(
-  { coefficient: ranged(0.5, 1.2, "").optional(), head_diameter_mm: headDiameterSchema.optional() },
+  { coefficient: ranged(PROBE_BOUNDS.coefficient, "").optional(), head_diameter_mm: headDiameterSchema.optional() },
   objectOf("coefficient and/or head_diameter_mm"),
 );
 
@@ -89,7 +134,7 @@ const STATIC_ALLOWED = "the duct static pressure at the plane, a number from -10
 
 /** Duct static pressure: required, so that leaving it out is a decision; null means not measured. */
 const staticSchema = z.custom<number | null>(
-  (v) => v === null || (typeof v === "number" && Number.isFinite(v) && v >= -10_000 && v <= 10_000),
+  (v) => v === null || within(v, STATIC_PA),
   { error: (iss) => (iss.input === undefined ? `is needed: give ${STATIC_ALLOWED}; got nothing` : `must be ${STATIC_ALLOWED}; got ${describeValue(iss.input)}`) },
 );
 
@@ -100,12 +145,12 @@ const staticSchema = z.custom<number | null>(
 export const airSchema = z
   .strictObject(
     {
-      dry_bulb_c: ranged(-40, 120, "°C"),
-      barometric_pa: ranged(50_000, 110_000, "Pa").optional(),
-      altitude_m: ranged(-500, 5_000, "m").optional(),
+      dry_bulb_c: ranged(AIR_BOUNDS.dry_bulb_c, "°C"),
+      barometric_pa: ranged(AIR_BOUNDS.barometric_pa, "Pa").optional(),
+      altitude_m: ranged(AIR_BOUNDS.altitude_m, "m").optional(),
       static_pa: staticSchema,
-      relative_humidity_pct: ranged(0, 100, "%").optional(),
-      wet_bulb_c: ranged(-40, 120, "°C").optional(),
+      relative_humidity_pct: ranged(AIR_BOUNDS.relative_humidity_pct, "%").optional(),
+      wet_bulb_c: ranged(AIR_BOUNDS.wet_bulb_c, "°C").optional(),
     },
     { error: (iss) => `must be an object with dry_bulb_c, barometric_pa and/or altitude_m, static_pa, and relative_humidity_pct or wet_bulb_c; got ${describeValue(iss.input)}` },
   )
@@ -134,16 +179,16 @@ export const readingsKindSchema = z.enum(["velocity_pressure", "velocity_actual"
 
 /** Instrument accuracies; each optional, typical values used otherwise (see DEFAULT_INSTRUMENT_ACCURACY). */
 export const instrumentSchema = z.strictObject({
-  pressure_accuracy_pct: ranged(0, 50, "% of reading").optional(),
-  pressure_floor_pa: ranged(0, 100, "Pa").optional(),
-  temperature_accuracy_c: ranged(0, 10, "°C").optional(),
-  barometric_accuracy_pa: ranged(0, 10_000, "Pa").optional(),
-  dimension_accuracy_mm: ranged(0, 100, "mm").optional(),
-  humidity_accuracy_pct: ranged(0, 50, "% RH").optional(),
-  velocity_accuracy_pct: ranged(0, 50, "% of reading").optional(),
-  velocity_floor_m_s: ranged(0, 5, "m/s").optional(),
-  repeatability_pct: ranged(0, 50, "% of velocity (one standard deviation)").optional(),
-  standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³ (the density the anemometer refers standard velocity to)").optional(),
+  pressure_accuracy_pct: ranged(INSTRUMENT_BOUNDS.pressure_accuracy_pct, "% of reading").optional(),
+  pressure_floor_pa: ranged(INSTRUMENT_BOUNDS.pressure_floor_pa, "Pa").optional(),
+  temperature_accuracy_c: ranged(INSTRUMENT_BOUNDS.temperature_accuracy_c, "°C").optional(),
+  barometric_accuracy_pa: ranged(INSTRUMENT_BOUNDS.barometric_accuracy_pa, "Pa").optional(),
+  dimension_accuracy_mm: ranged(INSTRUMENT_BOUNDS.dimension_accuracy_mm, "mm").optional(),
+  humidity_accuracy_pct: ranged(INSTRUMENT_BOUNDS.humidity_accuracy_pct, "% RH").optional(),
+  velocity_accuracy_pct: ranged(INSTRUMENT_BOUNDS.velocity_accuracy_pct, "% of reading").optional(),
+  velocity_floor_m_s: ranged(INSTRUMENT_BOUNDS.velocity_floor_m_s, "m/s").optional(),
+  repeatability_pct: ranged(INSTRUMENT_BOUNDS.repeatability_pct, "% of velocity (one standard deviation)").optional(),
+  standard_density_kg_m3: ranged(INSTRUMENT_BOUNDS.standard_density_kg_m3, "kg/m³ (the density the anemometer refers standard velocity to)").optional(),
 }, objectOf("instrument accuracies such as pressure_accuracy_pct and dimension_accuracy_mm"));
 
 const READING_RANGE = {
@@ -168,7 +213,7 @@ export const traverseInputSchema = z
     ...layoutFields,
     air: airSchema,
     probe: probeSchema.optional(),
-    standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³").optional(),
+    standard_density_kg_m3: ranged(STANDARD_DENSITY, "kg/m³").optional(),
     readings_kind: readingsKindSchema.optional(),
     instrument: instrumentSchema.optional(),
     readings: z
@@ -210,6 +255,100 @@ export const traverseInputSchema = z
   });
 export type TraverseInputJson = z.infer<typeof traverseInputSchema>;
 
+const TRAVERSE_KEYS = new Set(["duct", "method", "lines", "points_per_line", "straight_upstream_mm", "straight_downstream_mm", "port_offset_mm", "air", "probe", "standard_density_kg_m3", "readings_kind", "instrument", "readings"]);
+const AIR_KEYS = new Set(["dry_bulb_c", "barometric_pa", "altitude_m", "static_pa", "relative_humidity_pct", "wet_bulb_c"]);
+const PROBE_KEYS = new Set(Object.keys(PROBE_BOUNDS));
+const INSTRUMENT_KEYS = new Set(Object.keys(INSTRUMENT_BOUNDS));
+
+/** An object the schemas read as an object, with no key outside `keys`. */
+function objectWithKeys(value: unknown, keys: ReadonlySet<string>): value is Record<string, unknown> {
+  if (typeof value !== "object" || value === null || Array.isArray(value)) return false;
+  for (const key in value) if (!keys.has(key)) return false;
+  return true;
+}
+
+/** Absent (undefined, as the schemas' optional fields allow) or within bounds. */
+const optionalWithin = (value: unknown, bounds: Bounds) => value === undefined || within(value, bounds);
+
+/** Every field of an object with known keys absent or within its bounds. */
+function allWithin(value: Record<string, unknown>, bounds: Record<string, Bounds>): boolean {
+  for (const key in value) if (!optionalWithin(value[key], bounds[key]!)) return false;
+  return true;
+}
+
+function plainlyValidDuct(duct: unknown): duct is TraverseInputJson["duct"] {
+  if (typeof duct !== "object" || duct === null || Array.isArray(duct)) return false;
+  const d = duct as Record<string, unknown>;
+  if (d.shape === "round") return objectWithKeys(d, ROUND_KEYS) && within(d.diameter_mm, DUCT_MM);
+  return d.shape === "rectangular" && objectWithKeys(d, RECTANGULAR_KEYS) && within(d.width_mm, DUCT_MM) && within(d.height_mm, DUCT_MM);
+}
+const ROUND_KEYS = new Set(["shape", "diameter_mm"]);
+const RECTANGULAR_KEYS = new Set(["shape", "width_mm", "height_mm"]);
+
+function plainlyValidAir(air: unknown): boolean {
+  if (!objectWithKeys(air, AIR_KEYS)) return false;
+  const { dry_bulb_c: dryBulbC, barometric_pa: barometricPa, altitude_m: altitudeM, static_pa: staticPa, relative_humidity_pct: rh, wet_bulb_c: wetBulbC } = air;
+  if (!within(dryBulbC, AIR_BOUNDS.dry_bulb_c) || !(staticPa === null || within(staticPa, STATIC_PA))) return false;
+  if (!optionalWithin(barometricPa, AIR_BOUNDS.barometric_pa) || !optionalWithin(altitudeM, AIR_BOUNDS.altitude_m)) return false;
+  if (!optionalWithin(rh, AIR_BOUNDS.relative_humidity_pct) || !optionalWithin(wetBulbC, AIR_BOUNDS.wet_bulb_c)) return false;
+  // The schema's refinement: a pressure, exactly one humidity, wet-bulb at most dry-bulb, and air that can exist.
+  if (barometricPa === undefined && altitudeM === undefined) return false;
+  if ((rh === undefined) === (wetBulbC === undefined)) return false;
+  if (wetBulbC !== undefined && (wetBulbC as number) > (dryBulbC as number)) return false;
+  const conditions = {
+    dryBulbC: dryBulbC as number,
+    barometricPa: barometricPa as number | undefined,
+    altitudeM: altitudeM as number | undefined,
+    staticPa: (staticPa as number | null) ?? undefined,
+    relativeHumidityPct: rh as number | undefined,
+    wetBulbC: wetBulbC as number | undefined,
+  };
+  return Object.keys(airConditionErrors(conditions, "")).length === 0;
+}
+
+/**
+ * The traverse input itself when it is plainly valid, else null. Plainly valid: a plain JSON shape whose
+ * every field is present as the schema wants it and within its bounds, and whose readings fit the layout,
+ * as the traverse screen and most API clients send it. It accepts nothing traverseInputSchema refuses,
+ * and for what it accepts the schema's parse equals the input (no field has a default or a transform),
+ * so the input is used as it is. Anything else (null), and traverseInputSchema decides, with its messages.
+ * It exists because the schema checking each of up to 10,000 readings one by one costs several times the
+ * whole reduction.
+ */
+export function plainlyValidTraverseInput(input: unknown): TraverseInputJson | null {
+  if (!objectWithKeys(input, TRAVERSE_KEYS)) return null;
+  const { duct, method, lines, points_per_line: pointsPerLine, probe, instrument, readings_kind: kind, readings } = input;
+  if (!plainlyValidDuct(duct) || (method !== "equal-area" && method !== "log-linear")) return null;
+  if (!optionalWithin(lines, LAYOUT_BOUNDS.lines) || !optionalWithin(pointsPerLine, LAYOUT_BOUNDS.points_per_line)) return null;
+  if (!optionalWithin(input.straight_upstream_mm, LAYOUT_BOUNDS.straight_upstream_mm) || !optionalWithin(input.straight_downstream_mm, LAYOUT_BOUNDS.straight_downstream_mm)) return null;
+  if (!optionalWithin(input.port_offset_mm, LAYOUT_BOUNDS.port_offset_mm) || !optionalWithin(input.standard_density_kg_m3, STANDARD_DENSITY)) return null;
+  if (!plainlyValidAir(input.air)) return null;
+  if (probe !== undefined && !(objectWithKeys(probe, PROBE_KEYS) && allWithin(probe, PROBE_BOUNDS))) return null;
+  if (instrument !== undefined && !(objectWithKeys(instrument, INSTRUMENT_KEYS) && allWithin(instrument, INSTRUMENT_BOUNDS))) return null;
+  if (kind !== undefined && kind !== "velocity_pressure" && kind !== "velocity_actual" && kind !== "velocity_standard") return null;
+  // The readings, as the schema's refinement judges them: counts the method defines, every line as long, one read at least.
+  if (!Array.isArray(readings) || readings.length < 1 || readings.length > MAX_LINES) return null;
+  const first: unknown = readings[0];
+  if (!Array.isArray(first)) return null;
+  const lineCount = (lines as number | undefined) ?? readings.length;
+  const points = (pointsPerLine as number | undefined) ?? first.length;
+  if (readings.length !== lineCount || points > MAX_POINTS_PER_LINE || layoutCountProblem(duct.shape, method, { lines: lineCount, pointsPerLine: points })) return null;
+  const { min, max } = READING_RANGE[(kind as keyof typeof READING_RANGE | undefined) ?? "velocity_pressure"];
+  let anyRead = false;
+  for (let k = 0; k < lineCount; k++) {
+    const row: unknown = readings[k];
+    if (!Array.isArray(row) || row.length !== points) return null;
+    for (let i = 0; i < points; i++) {
+      const value: unknown = row[i];
+      if (value === null) continue;
+      // Inside the range means a finite number (NaN fails both comparisons).
+      if (typeof value !== "number" || !(value >= min && value <= max)) return null;
+      anyRead = true;
+    }
+  }
+  return anyRead ? (input as TraverseInputJson) : null;
+}
+
 /** A flow must be 0 or at least `min`: smaller non-zero values are typing or unit errors (checked in the node's refinement). */
 const tinyFlowMessage = (value: number, unit: string, min: number) =>
   `must be 0 (no flow) or from ${min} to 10000 ${unit}; got ${value}, too small to be a measured flow`;
@@ -218,9 +357,9 @@ const nodeSchema = z
   .strictObject({
     id: z.string({ error: (iss) => `must be the section's id, a text; got ${describeValue(iss.input)}` }).min(1, { error: "must not be empty" }).max(MAX_ID_CHARS, { error: (iss) => `must be at most ${MAX_ID_CHARS} characters; got ${(iss.input as string).length}` }),
     parent: z.string({ error: (iss) => `must be the id of the upstream section, or null for a root; got ${describeValue(iss.input)}` }).nullable(),
-    mass_flow_kg_s: ranged(0, 10_000, "kg/s").optional(),
-    flow_m3_s: ranged(0, 10_000, "m³/s").optional(),
-    density_kg_m3: ranged(0.3, 2.0, "kg/m³").optional(),
+    mass_flow_kg_s: ranged({ min: 0, max: 10_000 }, "kg/s").optional(),
+    flow_m3_s: ranged({ min: 0, max: 10_000 }, "m³/s").optional(),
+    density_kg_m3: ranged({ min: 0.3, max: 2.0 }, "kg/m³").optional(),
   }, objectOf("id, parent and mass_flow_kg_s (or flow_m3_s with density_kg_m3)"))
   .superRefine((node, ctx) => {
     // One refinement per node for these checks keeps a 5 000-section network quick to validate.
@@ -244,8 +383,8 @@ export const networkInputSchema = z
       .array(nodeSchema, { error: (iss) => `must be a list of duct sections; got ${describeValue(iss.input)}` })
       .min(1, { error: "must hold at least one section; got none" })
       .max(MAX_NETWORK_NODES, { error: (iss) => `has ${(iss.input as unknown[]).length} sections; at most ${MAX_NETWORK_NODES} are allowed` }),
-    tolerance_pct: ranged(0, 100, "%").optional(),
-    standard_density_kg_m3: ranged(1.0, 1.3, "kg/m³").optional(),
+    tolerance_pct: ranged({ min: 0, max: 100 }, "%").optional(),
+    standard_density_kg_m3: ranged(STANDARD_DENSITY, "kg/m³").optional(),
   }, topLevel("network"))
   .superRefine((input, ctx) => {
     const ids = new Map<string, number>();

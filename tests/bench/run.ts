@@ -77,7 +77,7 @@ const fmt = (x: number) => (Math.abs(x) >= 100 ? Math.round(x).toLocaleString("e
 
 async function main() {
   const figures: Figure[] = [];
-  if (only.includes("engine")) figures.push(...engineFigures());
+  if (only.includes("engine")) figures.push(...(await engineFigures()));
   if (only.includes("report")) figures.push(...(await reportFigures()));
   if (only.includes("pages")) {
     const app = await startAppServer({ timeLimitS: 1800, label: "bench" });
