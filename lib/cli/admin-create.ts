@@ -13,7 +13,7 @@ import { defaultDataDir, openDatabase } from "@/db/client";
 import { auditLog, users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { newPasswordSchema } from "@/lib/validation/auth";
-import { z } from "zod";
+import { z } from "@/lib/validation/zod";
 
 function argument(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);

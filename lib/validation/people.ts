@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "./zod";
 import { memberRole } from "@/db/schema";
 import { newPasswordSchema } from "./auth";
 

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "./zod";
 
 /** `POST …/reports/approvals`: the caller approves the report's content as it stands, with an optional comment. */
 export const reportApprovalSchema = z

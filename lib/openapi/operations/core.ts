@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/validation/zod";
 import type { Operation } from "../registry";
 import { passwordChangeSchema, preferencesSchema, signInSchema } from "@/lib/validation/auth";
 import { layoutInputSchema, networkInputSchema, traverseInputSchema } from "@/lib/validation/calc";

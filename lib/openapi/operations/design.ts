@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/validation/zod";
 import type { Operation } from "../registry";
 import { deletedSchema, fieldDataHeldSchema, projectResourceSchema, sectionResourceSchema, systemResourceSchema, terminalResourceSchema } from "@/lib/design/resources";
 import { SCHEDULE_LIMITS } from "@/lib/design/schedule-csv";

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/validation/zod";
 import type { Operation } from "../registry";
 import { markReadSchema } from "@/lib/validation/notifications";
 import { acceptInvitationSchema, changeRoleSchema, inviteSchema, signCertificationSchema, supervisorSchema } from "@/lib/validation/people";

@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { z } from "zod";
+import { z } from "@/lib/validation/zod";
 import { runCalcCommand } from "@/lib/airflow/commands";
 import { defineRoute } from "@/lib/server/route";
 
