@@ -7,35 +7,52 @@
  * grid when the network is there. A version conflict shows both grids and waits for a choice. The
  * engine runs in the browser for the live numbers; once saved, the server's result is shown (the same
  * calculation through the same input mapping).
+ *
+ * What the first paint needs comes with the page: the plane, the grid, the results as the server
+ * computed them. The engine (needed only once something is typed), the chart, the air editor and the
+ * editors behind a button or a closed panel arrive after the page is up (later-parts.ts), each in its
+ * own small task, and are kept on the device for use without network.
  */
 import dynamic from "next/dynamic";
 import { useCallback, useDeferredValue, useEffect, useId, useMemo, useRef, useState } from "react";
 import { ConflictChoice } from "@/components/offline/conflict-choice";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
-import { summarizeConditions } from "@/lib/airflow/conditions";
+import { summarizeConditions } from "@/lib/airflow/conditions-summary";
 import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
-import { camelKeys, engineSourceOf, reduceTraverseSource, type Grid, type PointRef } from "@/lib/traverse/engine-input";
+import type { Grid, PointRef } from "@/lib/traverse/engine-input";
 import { plausibilityFlags } from "@/lib/traverse/plausibility";
 import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/result-types";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
+import { laterPart } from "@/components/ui/later-part";
 import { SubmitPanel } from "@/components/review/submit-panel";
 import { reviewApi } from "@/lib/api-client/review";
 import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
-import { AirEditor } from "./air-editor";
 import { ChartBoundary } from "./chart-boundary";
-import { KitEditor } from "./kit-editor";
 import { CrossSection } from "./cross-section";
 import { InsertionDepths } from "./insertion-depths";
+import { fetchAfterLoad, loadAirEditor, loadChart, loadKitEditor, loadLiveEngine, loadMeterImport } from "./later-parts";
 import { LiveResults } from "./live-results";
-import { MeterImport } from "./meter-import";
 import { ReadingGrid, readingText } from "./reading-grid";
+import { useLiveEngine } from "./use-live-engine";
 
-const loadChart = () => import("./profile-chart");
 const ProfileChart = dynamic(loadChart, {
   ssr: false,
   loading: () => <p className="text-ink-soft">Loading the profile chart…</p>,
+});
+const OFFLINE_NOTE = "The readings, the results and what you type keep working; try again when the connection returns.";
+const AirEditor = laterPart(() => loadAirEditor().then((m) => m.AirEditor), {
+  loading: "Loading the air editor…",
+  unavailable: `The air editor could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const KitEditor = laterPart(() => loadKitEditor().then((m) => m.KitEditor), {
+  loading: "Loading the instruments and conditions…",
+  unavailable: `The instruments and conditions could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const MeterImport = laterPart(() => loadMeterImport().then((m) => m.MeterImport), {
+  loading: "Loading the meter import…",
+  unavailable: `The meter import could not be loaded without network. ${OFFLINE_NOTE}`,
 });
 
 export interface TraverseScreenProps {
@@ -64,19 +81,23 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const value = draft.value;
   const [focused, setFocused] = useState<string | null>(null);
   const [changingKit, setChangingKit] = useState(false);
-  // Not in the first load, but fetched once the page is up, so the chart is on the device (and kept by
+  // The meter import stays in place once opened, so closing the panel keeps a file being looked at.
+  const [importOpened, setImportOpened] = useState(false);
+  // Not in the first load, but fetched once the page is up, so every part is on the device (and kept by
   // the service worker) before the network goes.
-  useEffect(() => {
-    const idle = window.setTimeout(() => void loadChart().catch(() => undefined), 500);
-    return () => window.clearTimeout(idle);
-  }, []);
+  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadChart, loadAirEditor, loadMeterImport, loadKitEditor] : [loadChart]), [editable]);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
+
+  const synced = draft.syncState === "saved" && server.version === draft.version;
+  // The server's result stands for what it has; the tablet computes only what it does not have yet.
+  const { engine, failed: engineFailed } = useLiveEngine({ soon: editable, now: !synced });
 
   // The same engine source the server builds, with the air and readings held on this device.
   const air = value.air ?? { dryBulbC: server.air.dryBulbC, relativeHumidityPct: server.air.relativeHumidityPct, wetBulbC: server.air.wetBulbC, staticPa: server.air.staticPa, barometricPa: server.air.barometricPa };
   const live = useMemo(() => {
-    const source = engineSourceOf(
+    if (synced || !engine) return null;
+    const source = engine.engineSourceOf(
       {
         method: server.method,
         lines: server.lines,
@@ -96,14 +117,15 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
       server.section,
       server.project,
     );
-    return reduceTraverseSource(source, value.readings, value.unreadable);
-  }, [server, value.readings, value.unreadable, value.instrument.standardDensityKgM3, air.dryBulbC, air.relativeHumidityPct, air.wetBulbC, air.barometricPa, air.staticPa]);
+    const reduction = engine.reduceTraverseSource(source, value.readings, value.unreadable);
+    return { ...reduction, result: reduction.ok ? (engine.camelKeys(reduction.output) as TraverseResultJson) : null };
+  }, [synced, engine, server, value.readings, value.unreadable, value.instrument.standardDensityKgM3, air.dryBulbC, air.relativeHumidityPct, air.wetBulbC, air.barometricPa, air.staticPa]);
 
-  const synced = draft.syncState === "saved" && server.version === draft.version;
-  const result: TraverseResultJson | null = synced ? server.result : live.ok ? (camelKeys(live.output) as TraverseResultJson) : null;
-  const resultCounts = live.counts;
-  const shownResult = result ? { ...result, counts: result.counts ?? resultCounts } : null;
-  const problem = synced ? server.resultError?.message : live.ok ? null : live.message;
+  const result: TraverseResultJson | null = synced ? server.result : (live?.result ?? null);
+  const shownResult = result ? { ...result, counts: result.counts ?? live?.counts } : null;
+  const problem = synced ? server.resultError?.message : live && !live.ok ? live.message : null;
+  // Typed values the server has not computed yet, and the engine is still on its way.
+  const awaitingEngine = !synced && !live;
 
   const points = useMemo(() => new Map<string, TraversePointJson>((result?.points ?? []).map((p) => [`${p.line}:${p.point}`, p])), [result]);
   const reading = server.instrument.reading;
@@ -241,24 +263,26 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
             onFocusPoint={setFocused}
           />
           {editable && (
-            <details className="rounded-card border border-line p-3">
+            <details className="rounded-card border border-line p-3" onToggle={(e) => e.currentTarget.open && setImportOpened(true)}>
               <summary className="min-h-touch cursor-pointer py-2 font-semibold">Import readings from a meter&apos;s file</summary>
-              <MeterImport
-                lines={server.lines}
-                pointsPerLine={server.pointsPerLine}
-                kind={quantity}
-                units={units}
-                round={round}
-                hasReadings={hasReadings}
-                onAccept={(grid) =>
-                  draft.setValue((prev) => ({
-                    ...prev,
-                    readings: grid,
-                    // A point the file gives a value for is read after all.
-                    unreadable: prev.unreadable.filter(([k, i]) => grid[k]?.[i] === null),
-                  }))
-                }
-              />
+              {importOpened && (
+                <MeterImport
+                  lines={server.lines}
+                  pointsPerLine={server.pointsPerLine}
+                  kind={quantity}
+                  units={units}
+                  round={round}
+                  hasReadings={hasReadings}
+                  onAccept={(grid) =>
+                    draft.setValue((prev) => ({
+                      ...prev,
+                      readings: grid,
+                      // A point the file gives a value for is read after all.
+                      unreadable: prev.unreadable.filter(([k, i]) => grid[k]?.[i] === null),
+                    }))
+                  }
+                />
+              )}
             </details>
           )}
         </section>
@@ -269,6 +293,12 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           </h2>
           {shownResult ? (
             <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={`${resultsId}-verdict`} />
+          ) : awaitingEngine ? (
+            <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
+              {engineFailed
+                ? "The results are worked out on this tablet, and the part that does it could not be loaded without network. What you type is kept on this tablet; the results follow when the connection returns."
+                : "Working out the results on this tablet…"}
+            </p>
           ) : (
             <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
               {problem ?? "No readings yet."} {problem === "No readings yet." || !problem ? "Results appear as soon as the first value lands." : ""}

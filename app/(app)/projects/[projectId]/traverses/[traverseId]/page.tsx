@@ -11,7 +11,7 @@ import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { LocalTime } from "@/components/ui/local-time";
 import { StatusBadge } from "@/components/ui/status";
-import { SectionPhotos } from "@/components/uploads/section-photos";
+import { SectionPhotosLater } from "@/components/uploads/section-photos-later";
 import { isUuid } from "@/db/queries/projects";
 import { getTraverseInProject } from "@/db/queries/traverses";
 import type { Traverse } from "@/lib/api-client/traverses";
@@ -127,7 +127,7 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
       </div>
 
       <Card title={`Photos of ${section.tag}'s test ports and traverse plane`}>
-        <SectionPhotos
+        <SectionPhotosLater
           projectId={project.id}
           sectionId={section.id}
           sectionTag={section.tag}

@@ -1,0 +1,66 @@
+"use client";
+
+/**
+ * A part of a screen that is not in the page's first load (its code is fetched after the page is up,
+ * as the traverse screen's components/traverse/later-parts.ts does), drawn where it belongs once its
+ * code is there; until then `loading` holds its place, on the server's page too. The server does not
+ * draw the part itself: the browser would then have to keep that markup unchanged until the code
+ * arrived, and any change of the screen around it before that would make React throw it away. When
+ * the code cannot be fetched (no network before it ever arrived), `unavailable` says so, with a button
+ * to try again.
+ */
+import { Component, lazy, Suspense, useState, useSyncExternalStore, type ComponentType, type ReactNode } from "react";
+import { buttonClasses } from "./button";
+
+const noop = () => () => {};
+
+export function laterPart<P extends object>(load: () => Promise<ComponentType<P>>, texts: { loading: string; unavailable: string }) {
+  const make = () => lazy(() => load().then((c) => ({ default: c })));
+  // One lazy component for every use until a retry: React keeps what it resolved to.
+  let shared = make();
+  function LaterPart(props: P) {
+    const [Part, setPart] = useState(() => shared);
+    const mounted = useSyncExternalStore(noop, () => true, () => false);
+    const retry = () => {
+      shared = make();
+      setPart(() => shared);
+    };
+    const placeholder = <p className="text-ink-soft">{texts.loading}</p>;
+    if (!mounted) return placeholder;
+    return (
+      <PartBoundary unavailable={texts.unavailable} onRetry={retry}>
+        <Suspense fallback={placeholder}>
+          <Part {...props} />
+        </Suspense>
+      </PartBoundary>
+    );
+  }
+  return LaterPart;
+}
+
+class PartBoundary extends Component<{ children: ReactNode; unavailable: string; onRetry: () => void }, { failed: boolean }> {
+  state = { failed: false };
+
+  static getDerivedStateFromError(): { failed: boolean } {
+    return { failed: true };
+  }
+
+  render() {
+    if (!this.state.failed) return this.props.children;
+    return (
+      <div role="status" className="grid justify-items-start gap-2 rounded-card border border-dashed border-line-strong p-3 text-ink-soft">
+        <p>{this.props.unavailable}</p>
+        <button
+          type="button"
+          className={buttonClasses("secondary")}
+          onClick={() => {
+            this.props.onRetry();
+            this.setState({ failed: false });
+          }}
+        >
+          Try again
+        </button>
+      </div>
+    );
+  }
+}
