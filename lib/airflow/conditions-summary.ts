@@ -3,6 +3,7 @@
  * screen's results among them): the labels and the summary, kept apart from the comparisons and
  * checks in conditions.ts so a page that only shows conditions does not load those.
  */
+import { numberText } from "@/lib/units/number-text";
 
 export type BoxOverride = "none" | "maximum" | "minimum" | "mixed";
 export type FilterState = "clean" | "part_loaded" | "loaded" | "unknown";
@@ -37,7 +38,7 @@ export const defaultPressure = (pa: number) => `${roundedText(pa, 0)} Pa`;
 
 /** A number with at most `decimals` decimals and thousands separators, as "1,150". */
 export function roundedText(value: number, decimals: number): string {
-  return new Intl.NumberFormat("en-US", { maximumFractionDigits: decimals, minimumFractionDigits: 0 }).format(value);
+  return numberText(value, 0, decimals);
 }
 
 /** "1,150 rpm · terminal units forced to maximum · outside-air damper 30 % open · static set point 250 Pa · filters clean". */
