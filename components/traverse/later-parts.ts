@@ -1,7 +1,7 @@
 /**
  * The traverse screen's parts that are not in the page's first load: the live engine (with the zod
  * validation of its input), the profile chart, the meter-file import, the instrument and conditions
- * editor and the air editor. The page is drawn and usable without them; each is fetched once the
+ * editor, the air editor and the choice after a version conflict. The page is drawn and usable without them; each is fetched once the
  * page is up (one per idle moment, so no single task holds the tablet's main thread for long) or at
  * once when it is needed first. A failed fetch (no network before it ever arrived) is
  * tried again on the next call.
@@ -26,6 +26,7 @@ export const loadChart = once(() => import("./profile-chart"));
 export const loadMeterImport = once(() => import("./meter-import"));
 export const loadKitEditor = once(() => import("./kit-editor"));
 export const loadAirEditor = once(() => import("./air-editor"));
+export const loadGridConflict = once(() => import("./grid-conflict"));
 
 export type LiveEngine = Awaited<ReturnType<typeof loadLiveEngine>>;
 

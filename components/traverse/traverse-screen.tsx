@@ -13,9 +13,7 @@
  * editors behind a button or a closed panel arrive after the page is up (later-parts.ts), each in its
  * own small task, and are kept on the device for use without network.
  */
-import dynamic from "next/dynamic";
 import { useCallback, useDeferredValue, useEffect, useId, useMemo, useRef, useState } from "react";
-import { ConflictChoice } from "@/components/offline/conflict-choice";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
 import { summarizeConditions } from "@/lib/airflow/conditions-summary";
@@ -27,20 +25,13 @@ import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
 import { laterPart } from "@/components/ui/later-part";
 import { SubmitPanel } from "@/components/review/submit-panel";
-import { reviewApi } from "@/lib/api-client/review";
 import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
-import { ChartBoundary } from "./chart-boundary";
 import { CrossSection } from "./cross-section";
-import { InsertionDepths } from "./insertion-depths";
-import { fetchAfterLoad, loadAirEditor, loadChart, loadKitEditor, loadLiveEngine, loadMeterImport } from "./later-parts";
+import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadMeterImport } from "./later-parts";
 import { LiveResults } from "./live-results";
-import { ReadingGrid, readingText } from "./reading-grid";
+import { ReadingGrid } from "./reading-grid";
 import { useLiveEngine } from "./use-live-engine";
 
-const ProfileChart = dynamic(loadChart, {
-  ssr: false,
-  loading: () => <p className="text-ink-soft">Loading the profile chart…</p>,
-});
 const OFFLINE_NOTE = "The readings, the results and what you type keep working; try again when the connection returns.";
 const AirEditor = laterPart(() => loadAirEditor().then((m) => m.AirEditor), {
   loading: "Loading the air editor…",
@@ -49,6 +40,14 @@ const AirEditor = laterPart(() => loadAirEditor().then((m) => m.AirEditor), {
 const KitEditor = laterPart(() => loadKitEditor().then((m) => m.KitEditor), {
   loading: "Loading the instruments and conditions…",
   unavailable: `The instruments and conditions could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const ProfileChart = laterPart(() => loadChart().then((m) => m.ProfileChart), {
+  loading: "Loading the profile chart…",
+  unavailable: "The profile chart could not be loaded without network. The map and the grid show the same values; reopen the page when the connection returns to see the chart.",
+});
+const GridConflict = laterPart(() => loadGridConflict().then((m) => m.GridConflict), {
+  loading: "Another version of these readings is on the server: loading both to compare…",
+  unavailable: `Another version of these readings is on the server, and the comparison could not be loaded without network. Nothing has been overwritten; try again when the connection returns.`,
 });
 const MeterImport = laterPart(() => loadMeterImport().then((m) => m.MeterImport), {
   loading: "Loading the meter import…",
@@ -62,9 +61,11 @@ export interface TraverseScreenProps {
   /** The signed-in user may record readings (technicians); others see the traverse read-only. */
   canRecord: boolean;
   tolerance: { minusPct: number; plusPct: number };
+  /** The insertion depths beside the drawing (components/traverse/insertion-depths.tsx), drawn by the server: they never change on the tablet. */
+  insertionDepths: React.ReactNode;
 }
 
-export function TraverseScreen({ projectId, initial, units, canRecord, tolerance }: TraverseScreenProps) {
+export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths }: TraverseScreenProps) {
   const resultsId = useId();
   const resultsRef = useRef<HTMLHeadingElement>(null);
   const editable = canRecord && (initial.status === "draft" || initial.status === "returned");
@@ -85,7 +86,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const [importOpened, setImportOpened] = useState(false);
   // Not in the first load, but fetched once the page is up, so every part is on the device (and kept by
   // the service worker) before the network goes.
-  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadChart, loadAirEditor, loadMeterImport, loadKitEditor] : [loadChart]), [editable]);
+  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
 
@@ -165,9 +166,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </section>
         <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
           <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
-          <ChartBoundary>
-            <ProfileChart points={deferredResult.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
-          </ChartBoundary>
+          <ProfileChart points={deferredResult.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
         </section>
       </div>
     );
@@ -200,7 +199,8 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           pendingOnDevice={draft.syncState !== "saved"}
           online={draft.online}
           lastReview={initial.lastReview}
-          onSubmit={() => reviewApi.submitTraverse(projectId, initial.id)}
+          // The review client is fetched on the press: a submission needs the network anyway.
+          onSubmit={() => import("@/lib/api-client/review").then(({ reviewApi }) => reviewApi.submitTraverse(projectId, initial.id))}
         />
       )}
       {!canRecord && initial.lastReview && (
@@ -217,12 +217,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </p>
       )}
       {draft.conflict && (
-        <ConflictChoice
-          conflict={draft.conflict}
-          what={`readings of ${server.sectionTag}`}
-          onChoose={(c) => draft.resolveConflict(c)}
-          render={(d) => <GridSummary readings={d.readings} unreadable={d.unreadable} quantity={quantity} units={units} round={round} />}
-        />
+        <GridConflict conflict={draft.conflict} what={`readings of ${server.sectionTag}`} onChoose={(c) => draft.resolveConflict(c)} quantity={quantity} units={units} round={round} />
       )}
 
       <section aria-labelledby={`${resultsId}-plane`} className="grid gap-4 rounded-card border border-line bg-paper-raised p-gutter">
@@ -230,7 +225,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         {layout ? (
           <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
             <CrossSection duct={duct} layout={layout} title={`Cross-section of ${server.sectionTag} with the numbered traverse points and ports`} highlight={focused} />
-            <InsertionDepths layout={layout} units={units} portOffsetMm={server.portOffsetMm} round={round} />
+            {insertionDepths}
           </div>
         ) : (
           <p className="text-fault">The layout could not be drawn.</p>
@@ -348,32 +343,6 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           )}
         </section>
       )}
-    </div>
-  );
-}
-
-/** One version of the grid, compact, for the conflict choice. */
-function GridSummary({ readings, unreadable, quantity, units, round }: { readings: Grid; unreadable: readonly PointRef[]; quantity: "pressure" | "velocity"; units: UnitSystem; round: boolean }) {
-  const blocked = new Set(unreadable.map(([k, i]) => `${k}:${i}`));
-  return (
-    <div className="overflow-x-auto">
-      <table className="border-collapse text-right text-sm">
-        <caption className="sr-only">Readings by {round ? "diameter" : "line"} and point</caption>
-        <tbody>
-          {readings.map((row, k) => (
-            <tr key={k} className="border-t border-line">
-              <th scope="row" className="px-1 text-left">
-                {k + 1}
-              </th>
-              {row.map((v, i) => (
-                <td key={i} className="num px-1">
-                  {blocked.has(`${k}:${i}`) ? "×" : v === null ? "–" : readingText(v, quantity, units)}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
     </div>
   );
 }

@@ -5,6 +5,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ductSize } from "@/components/airflow/format";
 import { SyncStatusBanner } from "@/components/offline/sync-status-banner";
+import { InsertionDepths } from "@/components/traverse/insertion-depths";
 import { TraverseScreen } from "@/components/traverse/traverse-screen";
 import { buttonClasses } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -76,7 +77,14 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
       {canRecord && <SyncStatusBanner />}
       {canRecord && <Cautions layout="tiles" />}
 
-      <TraverseScreen projectId={project.id} initial={resource} units={units} canRecord={canRecord} tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }} />
+      <TraverseScreen
+        projectId={project.id}
+        initial={resource}
+        units={units}
+        canRecord={canRecord}
+        tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }}
+        insertionDepths={resource.layout && <InsertionDepths layout={resource.layout} units={units} portOffsetMm={resource.portOffsetMm} round={section.shape === "round"} />}
+      />
 
       <div className="grid gap-gutter lg:grid-cols-2">
         <Card title={`Instruments`}>
