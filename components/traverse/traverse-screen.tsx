@@ -32,7 +32,7 @@ import { LiveResults } from "./live-results";
 import { ReadingGrid } from "./reading-grid";
 import { useLiveEngine } from "./use-live-engine";
 
-const OFFLINE_NOTE = "The readings, the results and what you type keep working; try again when the connection returns.";
+const OFFLINE_NOTE = "The readings, the results and what you type keep working; reload the page when the connection returns.";
 const AirEditor = laterPart(() => loadAirEditor().then((m) => m.AirEditor), {
   loading: "Loading the air editor…",
   unavailable: `The air editor could not be loaded without network. ${OFFLINE_NOTE}`,
@@ -43,11 +43,11 @@ const KitEditor = laterPart(() => loadKitEditor().then((m) => m.KitEditor), {
 });
 const ProfileChart = laterPart(() => loadChart().then((m) => m.ProfileChart), {
   loading: "Loading the profile chart…",
-  unavailable: "The profile chart could not be loaded without network. The map and the grid show the same values; reopen the page when the connection returns to see the chart.",
+  unavailable: "The profile chart could not be loaded without network. The map and the grid show the same values; reload the page when the connection returns to see the chart.",
 });
 const GridConflict = laterPart(() => loadGridConflict().then((m) => m.GridConflict), {
   loading: "Another version of these readings is on the server: loading both to compare…",
-  unavailable: `Another version of these readings is on the server, and the comparison could not be loaded without network. Nothing has been overwritten; try again when the connection returns.`,
+  unavailable: `Another version of these readings is on the server, and the comparison could not be loaded without network. Nothing has been overwritten; reload the page when the connection returns.`,
 });
 const MeterImport = laterPart(() => loadMeterImport().then((m) => m.MeterImport), {
   loading: "Loading the meter import…",
@@ -291,7 +291,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           ) : awaitingEngine ? (
             <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
               {engineFailed
-                ? "The results are worked out on this tablet, and the part that does it could not be loaded without network. What you type is kept on this tablet; the results follow when the connection returns."
+                ? "The results are worked out on this tablet, and the part that does it could not be loaded without network. What you type is kept on this tablet and sent when the connection returns; reload the page then to see the results."
                 : "Working out the results on this tablet…"}
             </p>
           ) : (

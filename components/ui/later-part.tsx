@@ -7,28 +7,22 @@
  * draw the part itself: the browser would then have to keep that markup unchanged until the code
  * arrived, and any change of the screen around it before that would make React throw it away. When
  * the code cannot be fetched (no network before it ever arrived), `unavailable` says so, with a button
- * to try again.
+ * that reloads the page (what was typed is kept on the device; once the bundler has failed to fetch a
+ * part, only a new page fetches it again).
  */
-import { Component, lazy, Suspense, useState, useSyncExternalStore, type ComponentType, type ReactNode } from "react";
+import { Component, lazy, Suspense, useSyncExternalStore, type ComponentType, type ReactNode } from "react";
 import { buttonClasses } from "./button";
 
 const noop = () => () => {};
 
 export function laterPart<P extends object>(load: () => Promise<ComponentType<P>>, texts: { loading: string; unavailable: string }) {
-  const make = () => lazy(() => load().then((c) => ({ default: c })));
-  // One lazy component for every use until a retry: React keeps what it resolved to.
-  let shared = make();
+  const Part = lazy(() => load().then((c) => ({ default: c })));
   function LaterPart(props: P) {
-    const [Part, setPart] = useState(() => shared);
     const mounted = useSyncExternalStore(noop, () => true, () => false);
-    const retry = () => {
-      shared = make();
-      setPart(() => shared);
-    };
     const placeholder = <p className="text-ink-soft">{texts.loading}</p>;
     if (!mounted) return placeholder;
     return (
-      <PartBoundary unavailable={texts.unavailable} onRetry={retry}>
+      <PartBoundary unavailable={texts.unavailable}>
         <Suspense fallback={placeholder}>
           <Part {...props} />
         </Suspense>
@@ -38,7 +32,7 @@ export function laterPart<P extends object>(load: () => Promise<ComponentType<P>
   return LaterPart;
 }
 
-class PartBoundary extends Component<{ children: ReactNode; unavailable: string; onRetry: () => void }, { failed: boolean }> {
+class PartBoundary extends Component<{ children: ReactNode; unavailable: string }, { failed: boolean }> {
   state = { failed: false };
 
   static getDerivedStateFromError(): { failed: boolean } {
@@ -50,15 +44,8 @@ class PartBoundary extends Component<{ children: ReactNode; unavailable: string;
     return (
       <div role="status" className="grid justify-items-start gap-2 rounded-card border border-dashed border-line-strong p-3 text-ink-soft">
         <p>{this.props.unavailable}</p>
-        <button
-          type="button"
-          className={buttonClasses("secondary")}
-          onClick={() => {
-            this.props.onRetry();
-            this.setState({ failed: false });
-          }}
-        >
-          Try again
+        <button type="button" className={buttonClasses("secondary")} onClick={() => window.location.reload()}>
+          Reload the page
         </button>
       </div>
     );

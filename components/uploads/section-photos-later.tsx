@@ -8,5 +8,5 @@ import { laterPart } from "@/components/ui/later-part";
 
 export const SectionPhotosLater = laterPart(() => import("./section-photos").then((m) => m.SectionPhotos), {
   loading: "Loading the photos…",
-  unavailable: "The photos could not be loaded without network; they are shown when the connection returns.",
+  unavailable: "The photos could not be loaded without network; reload the page when the connection returns to see them.",
 });
