@@ -13,7 +13,8 @@ import { defaultDataDir, openDatabase } from "@/db/client";
 import { auditLog, users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { newPasswordSchema } from "@/lib/validation/auth";
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z } from "zod";
 
 function argument(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);

@@ -3,8 +3,8 @@
  * document cannot drift from what the server accepts. Each area lists its operations in
  * lib/openapi/operations/<area>.ts; lib/openapi/index.ts gathers them.
  */
-import type { ZodType } from "zod";
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z, type ZodType } from "zod";
 
 export type HttpMethod = "get" | "post" | "put" | "patch" | "delete";
 

@@ -1,4 +1,5 @@
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 
 export const signInSchema = z.object({
   email: z.string({ error: "Enter your e-mail address." }).trim().min(1, "Enter your e-mail address.").max(254).email("That is not an e-mail address."),

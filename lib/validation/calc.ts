@@ -3,7 +3,8 @@
  * `POST /api/v1/calc/<command>`. JSON is snake_case; lengths mm, pressures Pa, temperatures °C.
  * Every message names the value received and what is allowed; paths are dotted (`readings.1.3`).
  */
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 import { airConditionErrors } from "@/lib/airflow/air";
 import { layoutCountProblem } from "@/lib/airflow/layout";
 import { MIN_FLOW_M3_S, MIN_MASS_FLOW_KG_S } from "@/lib/airflow/network";

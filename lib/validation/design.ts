@@ -3,7 +3,8 @@
  * schemas serves the API (SI JSON) and the set-up forms, which convert what was typed to SI first and
  * build the schemas with their own units so every limit is stated in the units the person typed in.
  */
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 import { API_UNITS, formatIn, tidyNumber, type DesignQuantity, type DesignUnits } from "@/lib/design/quantities";
 
 export const SYSTEM_KINDS = ["supply", "return", "exhaust", "outside_air"] as const;

@@ -2,7 +2,8 @@
  * Small zod building blocks for resource JSON (camelCase, SI): every message names the value received
  * and what is allowed, as the calc schemas do.
  */
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 import { describeValue } from "./calc";
 
 /** A number from min to max in `unit`, or null (not stated). */

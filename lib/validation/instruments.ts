@@ -5,7 +5,8 @@
  * `instrumentRecordProblems`, run on the complete record: the create body, or the stored row with a
  * PATCH applied.
  */
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 import type { InstrumentKind } from "@/db/schema";
 import { INSTRUMENT_KINDS, KIND_INFO } from "@/lib/instruments/kinds";
 import { boundedText, enumOf, isCalendarDate, nullableDate, nullableNumber } from "./fields";

@@ -1,4 +1,5 @@
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 import { memberRole } from "@/db/schema";
 import { newPasswordSchema } from "./auth";
 

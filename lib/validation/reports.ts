@@ -1,4 +1,5 @@
-import { z } from "./zod";
+import "./zod-browser";
+import { z } from "zod";
 
 /** `POST …/reports/approvals`: the caller approves the report's content as it stands, with an optional comment. */
 export const reportApprovalSchema = z

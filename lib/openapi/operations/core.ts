@@ -1,4 +1,5 @@
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z } from "zod";
 import type { Operation } from "../registry";
 import { passwordChangeSchema, preferencesSchema, signInSchema } from "@/lib/validation/auth";
 import { layoutInputSchema, networkInputSchema, traverseInputSchema } from "@/lib/validation/calc";

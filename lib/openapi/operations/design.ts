@@ -1,4 +1,5 @@
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z } from "zod";
 import type { Operation } from "../registry";
 import { deletedSchema, fieldDataHeldSchema, projectResourceSchema, sectionResourceSchema, systemResourceSchema, terminalResourceSchema } from "@/lib/design/resources";
 import { SCHEDULE_LIMITS } from "@/lib/design/schedule-csv";

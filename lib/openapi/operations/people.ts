@@ -1,4 +1,5 @@
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z } from "zod";
 import type { Operation } from "../registry";
 import { markReadSchema } from "@/lib/validation/notifications";
 import { acceptInvitationSchema, changeRoleSchema, inviteSchema, signCertificationSchema, supervisorSchema } from "@/lib/validation/people";

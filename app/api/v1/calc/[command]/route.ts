@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
-import { z } from "@/lib/validation/zod";
+import "@/lib/validation/zod-browser";
+import { z } from "zod";
 import { runCalcCommand } from "@/lib/airflow/commands";
 import { defineRoute } from "@/lib/server/route";
 
