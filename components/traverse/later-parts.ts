@@ -1,27 +1,38 @@
 /**
  * The traverse screen's parts that are not in the page's first load: the live engine (with the zod
- * validation of its input), the profile chart, the meter-file import, the instrument and conditions
- * editor, the air editor and the choice after a version conflict. The page is drawn and usable without them; each is fetched once the
- * page is up (one per idle moment, so no single task holds the tablet's main thread for long) or at
- * once when it is needed first. A failed fetch (no network before it ever arrived) is
- * tried again on the next call.
+ * validation of its input) and the results it draws (the server draws the first ones), the profile
+ * chart, the meter-file import, the instrument and conditions editor, the air editor and the choice
+ * after a version conflict. The page is drawn and usable without them; each is fetched once the page
+ * is up (one per idle moment, so no single task holds the tablet's main thread for long) or at once
+ * when it is needed first. A failed fetch (no network before it ever arrived) is tried again on the
+ * next call.
  *
  * Once they are all on the device, the service worker is asked to keep their files with the page, so
  * a technician who loses the signal later never meets a part that cannot load.
  */
+import type { PartLoader } from "@/components/ui/later-part";
 import { keepLoadedFilesForOffline } from "@/lib/offline/service-worker";
 
-/** A loader that fetches its module once; a rejection is forgotten so the next call tries again. */
-function once<T>(load: () => Promise<T>): () => Promise<T> {
+/**
+ * A loader that fetches its module once; a rejection is forgotten so the next call tries again.
+ * `loaded()` gives the module without waiting once it is there.
+ */
+function once<T>(load: () => Promise<T>): PartLoader<T> & { loaded: () => T | null } {
   let pending: Promise<T> | null = null;
-  return () =>
-    (pending ??= load().catch((err: unknown) => {
-      pending = null;
-      throw err;
-    }));
+  let value: T | null = null;
+  const loader = () =>
+    (pending ??= load().then(
+      (m) => (value = m),
+      (err: unknown) => {
+        pending = null;
+        throw err;
+      },
+    ));
+  return Object.assign(loader, { loaded: () => value });
 }
 
 export const loadLiveEngine = once(() => import("@/lib/traverse/engine-input"));
+export const loadLiveResults = once(() => import("./live-results"));
 export const loadChart = once(() => import("./profile-chart"));
 export const loadMeterImport = once(() => import("./meter-import"));
 export const loadKitEditor = once(() => import("./kit-editor"));

@@ -27,29 +27,33 @@ import { laterPart } from "@/components/ui/later-part";
 import { SubmitPanel } from "@/components/review/submit-panel";
 import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
 import { CrossSection } from "./cross-section";
-import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadMeterImport } from "./later-parts";
-import { LiveResults } from "./live-results";
+import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadLiveResults, loadMeterImport } from "./later-parts";
+import { resultsHeadingId } from "./results-heading";
 import { ReadingGrid } from "./reading-grid";
 import { useLiveEngine } from "./use-live-engine";
 
 const OFFLINE_NOTE = "The readings, the results and what you type keep working; reload the page when the connection returns.";
-const AirEditor = laterPart(() => loadAirEditor().then((m) => m.AirEditor), {
+const AirEditor = laterPart(loadAirEditor, (m) => m.AirEditor, {
   loading: "Loading the air editor…",
   unavailable: `The air editor could not be loaded without network. ${OFFLINE_NOTE}`,
 });
-const KitEditor = laterPart(() => loadKitEditor().then((m) => m.KitEditor), {
+const KitEditor = laterPart(loadKitEditor, (m) => m.KitEditor, {
   loading: "Loading the instruments and conditions…",
   unavailable: `The instruments and conditions could not be loaded without network. ${OFFLINE_NOTE}`,
 });
-const ProfileChart = laterPart(() => loadChart().then((m) => m.ProfileChart), {
+const LiveResults = laterPart(loadLiveResults, (m) => m.LiveResults, {
+  loading: "Loading the results…",
+  unavailable: `The results could not be shown without network. ${OFFLINE_NOTE}`,
+});
+const ProfileChart = laterPart(loadChart, (m) => m.ProfileChart, {
   loading: "Loading the profile chart…",
   unavailable: "The profile chart could not be loaded without network. The map and the grid show the same values; reload the page when the connection returns to see the chart.",
 });
-const GridConflict = laterPart(() => loadGridConflict().then((m) => m.GridConflict), {
+const GridConflict = laterPart(loadGridConflict, (m) => m.GridConflict, {
   loading: "Another version of these readings is on the server: loading both to compare…",
   unavailable: `Another version of these readings is on the server, and the comparison could not be loaded without network. Nothing has been overwritten; reload the page when the connection returns.`,
 });
-const MeterImport = laterPart(() => loadMeterImport().then((m) => m.MeterImport), {
+const MeterImport = laterPart(loadMeterImport, (m) => m.MeterImport, {
   loading: "Loading the meter import…",
   unavailable: `The meter import could not be loaded without network. ${OFFLINE_NOTE}`,
 });
@@ -63,9 +67,15 @@ export interface TraverseScreenProps {
   tolerance: { minusPct: number; plusPct: number };
   /** The insertion depths beside the drawing (components/traverse/insertion-depths.tsx), drawn by the server: they never change on the tablet. */
   insertionDepths: React.ReactNode;
+  /**
+   * The results of `initial` as the server drew them (components/traverse/live-results.tsx, with
+   * `resultsHeadingId`), shown while they are current: the same component draws newer ones on the
+   * tablet, so the page does not carry it in its first load.
+   */
+  initialResults: React.ReactNode;
 }
 
-export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths }: TraverseScreenProps) {
+export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths, initialResults }: TraverseScreenProps) {
   const resultsId = useId();
   const resultsRef = useRef<HTMLHeadingElement>(null);
   const editable = canRecord && (initial.status === "draft" || initial.status === "returned");
@@ -86,7 +96,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const [importOpened, setImportOpened] = useState(false);
   // Not in the first load, but fetched once the page is up, so every part is on the device (and kept by
   // the service worker) before the network goes.
-  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
+  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadLiveResults, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
 
@@ -286,8 +296,10 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           <h2 id={`${resultsId}-results`} ref={resultsRef} tabIndex={-1}>
             Results
           </h2>
-          {shownResult ? (
-            <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={`${resultsId}-verdict`} />
+          {shownResult && synced && server.version === initial.version && initialResults ? (
+            initialResults
+          ) : shownResult ? (
+            <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={resultsHeadingId(initial.id)} />
           ) : awaitingEngine ? (
             <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
               {engineFailed

@@ -13,7 +13,8 @@ import { useEffect, useState } from "react";
 import { afterLoad, loadLiveEngine, type LiveEngine } from "./later-parts";
 
 export function useLiveEngine({ soon, now }: { soon: boolean; now: boolean }): { engine: LiveEngine | null; failed: boolean } {
-  const [engine, setEngine] = useState<LiveEngine | null>(null);
+  // Already here when the technician comes from another traverse within the app.
+  const [engine, setEngine] = useState<LiveEngine | null>(() => loadLiveEngine.loaded());
   const [failed, setFailed] = useState(false);
   const [attempt, setAttempt] = useState(0);
 

@@ -15,8 +15,20 @@ import { buttonClasses } from "./button";
 
 const noop = () => () => {};
 
-export function laterPart<P extends object>(load: () => Promise<ComponentType<P>>, texts: { loading: string; unavailable: string }) {
-  const Part = lazy(() => load().then((c) => ({ default: c })));
+/** A loader that can also say, without waiting, what it has already loaded (see components/traverse/later-parts.ts). */
+export type PartLoader<M> = (() => Promise<M>) & { loaded?: () => M | null };
+
+export function laterPart<M, P extends object>(load: PartLoader<M>, pick: (m: M) => ComponentType<P>, texts: { loading: string; unavailable: string }) {
+  const Part = lazy(() => {
+    // Already fetched (preloaded after the page came up): hand it over at once, so React draws the part
+    // in the same render instead of showing `loading` for a moment.
+    const ready = load.loaded?.();
+    if (ready) {
+      const part = { default: pick(ready) };
+      return { then: (resolve: (m: typeof part) => void) => resolve(part) } as unknown as Promise<typeof part>;
+    }
+    return load().then((m) => ({ default: pick(m) }));
+  });
   function LaterPart(props: P) {
     const mounted = useSyncExternalStore(noop, () => true, () => false);
     const placeholder = <p className="text-ink-soft">{texts.loading}</p>;

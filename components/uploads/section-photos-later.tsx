@@ -6,7 +6,7 @@
  */
 import { laterPart } from "@/components/ui/later-part";
 
-export const SectionPhotosLater = laterPart(() => import("./section-photos").then((m) => m.SectionPhotos), {
+export const SectionPhotosLater = laterPart(() => import("./section-photos"), (m) => m.SectionPhotos, {
   loading: "Loading the photos…",
   unavailable: "The photos could not be loaded without network; reload the page when the connection returns to see them.",
 });

@@ -6,6 +6,8 @@ import { notFound } from "next/navigation";
 import { ductSize } from "@/components/airflow/format";
 import { SyncStatusBanner } from "@/components/offline/sync-status-banner";
 import { InsertionDepths } from "@/components/traverse/insertion-depths";
+import { LiveResults } from "@/components/traverse/live-results";
+import { resultsHeadingId } from "@/components/traverse/results-heading";
 import { TraverseScreen } from "@/components/traverse/traverse-screen";
 import { buttonClasses } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -84,6 +86,18 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
         canRecord={canRecord}
         tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }}
         insertionDepths={resource.layout && <InsertionDepths layout={resource.layout} units={units} portOffsetMm={resource.portOffsetMm} round={section.shape === "round"} />}
+        initialResults={
+          resource.result && (
+            <LiveResults
+              result={resource.result}
+              units={units}
+              designFlowM3S={section.designFlowM3S}
+              tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }}
+              source={{ kind: "server", version: resource.version }}
+              headingId={resultsHeadingId(resource.id)}
+            />
+          )
+        }
       />
 
       <div className="grid gap-gutter lg:grid-cols-2">
