@@ -1,7 +1,7 @@
 /**
  * The traverse screen's parts that are not in the page's first load: the live engine (with the zod
- * validation of its input) and the results it draws (the server draws the first ones), the profile
- * chart, the meter-file import, the instrument and conditions editor, the air editor and the choice
+ * validation of its input) and the results it draws (the server draws the first ones), the velocity map
+ * and profile chart, the meter-file import, the instrument and conditions editor, the air editor and the choice
  * after a version conflict. The page is drawn and usable without them; each is fetched once the page
  * is up (one per idle moment, so no single task holds the tablet's main thread for long) or at once
  * when it is needed first. A failed fetch (no network before it ever arrived) is tried again on the
@@ -33,6 +33,7 @@ function once<T>(load: () => Promise<T>): PartLoader<T> & { loaded: () => T | nu
 
 export const loadLiveEngine = once(() => import("@/lib/traverse/engine-input"));
 export const loadLiveResults = once(() => import("./live-results"));
+export const loadVelocityViews = once(() => import("./velocity-views"));
 export const loadChart = once(() => import("./profile-chart"));
 export const loadMeterImport = once(() => import("./meter-import"));
 export const loadKitEditor = once(() => import("./kit-editor"));

@@ -24,7 +24,7 @@ const STYLES = [
 ] as const;
 const SHADES = ["#0d5c8c", "#111a22", "#8a5a00", "#1d6b3a", "#a3261b", "#52606d", "#083f61"];
 
-export function ProfileChart({ points, lines, units, round, label }: { points: TraversePointJson[]; lines: number; units: UnitSystem; round: boolean; label: string }) {
+export function ProfileChart({ points, lines, units, round, label }: { points: readonly TraversePointJson[]; lines: number; units: UnitSystem; round: boolean; label: string }) {
   const v = displayUnit(units, "velocity");
   const d = displayUnit(units, "dimension");
   const datasets = Array.from({ length: lines }, (_, k) => {

@@ -26,8 +26,7 @@ import { buttonClasses } from "@/components/ui/button";
 import { laterPart } from "@/components/ui/later-part";
 import { SubmitPanel } from "@/components/review/submit-panel";
 import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
-import { CrossSection } from "./cross-section";
-import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadLiveResults, loadMeterImport } from "./later-parts";
+import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadLiveResults, loadMeterImport, loadVelocityViews } from "./later-parts";
 import { resultsHeadingId } from "./results-heading";
 import { ReadingGrid } from "./reading-grid";
 import { useLiveEngine } from "./use-live-engine";
@@ -45,9 +44,9 @@ const LiveResults = laterPart(loadLiveResults, (m) => m.LiveResults, {
   loading: "Loading the results…",
   unavailable: `The results could not be shown without network. ${OFFLINE_NOTE}`,
 });
-const ProfileChart = laterPart(loadChart, (m) => m.ProfileChart, {
-  loading: "Loading the profile chart…",
-  unavailable: "The profile chart could not be loaded without network. The map and the grid show the same values; reload the page when the connection returns to see the chart.",
+const VelocityViews = laterPart(loadVelocityViews, (m) => m.VelocityViews, {
+  loading: "Drawing the velocity map and profile…",
+  unavailable: `The velocity map and profile could not be loaded without network. ${OFFLINE_NOTE}`,
 });
 const GridConflict = laterPart(loadGridConflict, (m) => m.GridConflict, {
   loading: "Another version of these readings is on the server: loading both to compare…",
@@ -73,9 +72,13 @@ export interface TraverseScreenProps {
    * tablet, so the page does not carry it in its first load.
    */
   initialResults: React.ReactNode;
+  /** The plane (components/traverse/cross-section.tsx without values), drawn by the server; the point being typed at is marked on it here. */
+  plane: React.ReactNode;
+  /** The velocity map and profile of `initial` (components/traverse/velocity-views.tsx), drawn by the server, shown while current. */
+  initialViews: React.ReactNode;
 }
 
-export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths, initialResults }: TraverseScreenProps) {
+export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths, initialResults, plane, initialViews }: TraverseScreenProps) {
   const resultsId = useId();
   const resultsRef = useRef<HTMLHeadingElement>(null);
   const editable = canRecord && (initial.status === "draft" || initial.status === "returned");
@@ -91,12 +94,19 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const server = draft.server ?? initial;
   const value = draft.value;
   const [focused, setFocused] = useState<string | null>(null);
+  // The plane is the server's drawing: the point being typed at is marked on it here (app/globals.css draws the mark).
+  const planeRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    const point = focused ? planeRef.current?.querySelector(`[data-point="${focused}"]`) : null;
+    point?.setAttribute("data-focused", "");
+    return () => point?.removeAttribute("data-focused");
+  }, [focused]);
   const [changingKit, setChangingKit] = useState(false);
   // The meter import stays in place once opened, so closing the panel keeps a file being looked at.
   const [importOpened, setImportOpened] = useState(false);
   // Not in the first load, but fetched once the page is up, so every part is on the device (and kept by
   // the service worker) before the network goes.
-  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadLiveResults, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
+  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadLiveResults, loadVelocityViews, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
 
@@ -156,31 +166,14 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   // goes on), so each key press re-renders only the grid and the results.
   const deferredResult = useDeferredValue(result);
   const deferredUnreadable = useDeferredValue(value.unreadable);
-  const mapAndChart = useMemo(() => {
-    if (!deferredResult || !layout || !deferredResult.points.some((p) => p.velocityMS !== null)) return null;
-    const byPoint = new Map(deferredResult.points.map((p) => [`${p.line}:${p.point}`, p]));
-    const velocities = layout.lines.map((l, k) => l.points.map((_, i) => byPoint.get(`${k}:${i}`)?.velocityMS ?? null));
-    const filled = new Map(deferredResult.points.filter((p) => p.filledVelocityMS !== undefined).map((p) => [`${p.line}:${p.point}`, p.filledVelocityMS!]));
-    const unreadableKeys = new Set(deferredUnreadable.map(([k, i]) => `${k}:${i}`));
-    return (
-      <div className="grid gap-gutter lg:grid-cols-2">
-        <section aria-labelledby={`${resultsId}-map`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-          <h2 id={`${resultsId}-map`}>Velocity map</h2>
-          <p className="text-sm text-ink-soft">Velocity at each point in {formatQuantity(units, "velocity", 0).replace(/^[-\d.,\s]+/, "")}; darker is faster. × unreadable, – not read, italics filled by the engine.</p>
-          <CrossSection
-            duct={duct}
-            layout={layout}
-            title={`Velocity map of ${server.sectionTag}`}
-            values={{ velocities, unreadable: unreadableKeys, filled, format: (ms) => formatQuantity(units, "velocity", ms, { withUnit: false, decimals: units === "IP" ? 0 : 1 }) }}
-          />
-        </section>
-        <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-          <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
-          <ProfileChart points={deferredResult.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
-        </section>
-      </div>
-    );
-  }, [deferredResult, deferredUnreadable, layout, duct, units, server.sectionTag, server.lines, round, resultsId]);
+  // What the server drew (results, map and chart) stands while it is current.
+  const showsInitial = synced && server.version === initial.version;
+  const views =
+    showsInitial && initialViews ? (
+      initialViews
+    ) : deferredResult && layout && deferredResult.points.some((p) => p.velocityMS !== null) ? (
+      <VelocityViews points={deferredResult.points} unreadable={deferredUnreadable} layout={layout} duct={duct} units={units} sectionTag={server.sectionTag} lines={server.lines} round={round} />
+    ) : null;
   const hasReadings = value.readings.some((row) => row.some((v) => v !== null));
 
   const setGrid = (next: { readings: Grid; unreadable: PointRef[] }) => draft.setValue((prev) => ({ ...prev, readings: next.readings, unreadable: next.unreadable }));
@@ -234,7 +227,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         <h2 id={`${resultsId}-plane`}>Plane and probe marks</h2>
         {layout ? (
           <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-            <CrossSection duct={duct} layout={layout} title={`Cross-section of ${server.sectionTag} with the numbered traverse points and ports`} highlight={focused} />
+            <div ref={planeRef}>{plane}</div>
             {insertionDepths}
           </div>
         ) : (
@@ -327,7 +320,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </section>
       </div>
 
-      {mapAndChart}
+      {views}
 
       {editable && (
         <section aria-labelledby={`${resultsId}-air`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
