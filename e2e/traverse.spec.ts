@@ -229,6 +229,8 @@ test.describe("on a portrait tablet", () => {
     await expect(page.getByText("No network: the readings are sent when the connection returns.")).toBeVisible();
     await expect(page.getByText(/^Computed on this tablet as you type/)).toBeVisible();
     await expect(page.getByTestId("mean-velocity")).toHaveText(/\d/);
+    // The chart is drawn once its place comes near the screen.
+    await page.getByRole("heading", { name: "Velocity profile" }).scrollIntoViewIfNeeded();
     await expect(page.getByRole("img", { name: /Velocity profile of X1\b/ })).toBeVisible();
     // So do the air editor, the meter import and the instrument and conditions editor.
     await expect(page.getByRole("textbox", { name: /^Dry-bulb/ })).toBeVisible();

@@ -31,7 +31,17 @@ function once<T>(load: () => Promise<T>): PartLoader<T> & { loaded: () => T | nu
   return Object.assign(loader, { loaded: () => value });
 }
 
-export const loadLiveEngine = once(() => import("@/lib/traverse/engine-input"));
+/** A macrotask boundary: the browser may paint and answer input before the next step. */
+const pause = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
+
+// In three steps (zod, the calc command's schemas, the engine), each its own task, instead of one long one.
+export const loadLiveEngine = once(async () => {
+  await import("@/lib/validation/zod-browser");
+  await pause();
+  await import("@/lib/validation/calc");
+  await pause();
+  return import("@/lib/traverse/engine-input");
+});
 export const loadLiveResults = once(() => import("./live-results"));
 export const loadVelocityViews = once(() => import("./velocity-views"));
 export const loadChart = once(() => import("./profile-chart"));
