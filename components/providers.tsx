@@ -1,6 +1,5 @@
 "use client";
 
-import "@/lib/validation/zod-browser";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useState } from "react";
 

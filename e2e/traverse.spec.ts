@@ -54,6 +54,32 @@ function engineFigures(engineInputBase: Record<string, unknown>, readings: (numb
   };
 }
 
+/**
+ * Waits until the service worker holds this page and every script the page has loaded, the parts it
+ * fetches after it is up included (one per idle moment after the load event: waited for until their
+ * list has stopped growing for a few seconds): what "opened once" leaves a tablet with before the
+ * signal goes.
+ */
+async function waitUntilKeptForOffline(page: Page) {
+  await page.waitForLoadState("load");
+  const kept = await page.evaluate(async () => {
+    const statics = await caches.open("airtally-static-v1");
+    let count = -1;
+    let since = performance.now();
+    for (const end = performance.now() + 60_000; performance.now() < end; await new Promise((r) => setTimeout(r, 250))) {
+      const scripts = performance
+        .getEntriesByType("resource")
+        .map((e) => e.name)
+        .filter((u) => new URL(u).pathname.startsWith("/_next/static/") && u.endsWith(".js"));
+      if (scripts.length !== count) [count, since] = [scripts.length, performance.now()];
+      if (performance.now() - since < 4000 || !(await caches.match(location.href))) continue;
+      if ((await Promise.all(scripts.map((u) => statics.match(u)))).every(Boolean)) return true;
+    }
+    return false;
+  });
+  expect(kept, "the service worker kept the page and every script it loaded").toBe(true);
+}
+
 async function typeLine(page: Page, values: readonly string[]) {
   for (const v of values) {
     await page.keyboard.type(v);
@@ -185,6 +211,42 @@ test.describe("on a landscape tablet", () => {
 
 test.describe("on a portrait tablet", () => {
   test.use({ viewport: { width: 820, height: 1180 }, hasTouch: true });
+
+  test("after one visit, every part of the traverse screen works without network, the parts loaded after the page included", async ({ page, context, playwright, baseURL }) => {
+    const projectId = await openFieldWork(page);
+    const api = await apiAs(playwright, baseURL, "tech@example.test");
+    const design = (await (await api.get(`/api/v1/projects/${projectId}`)).json()) as { sections: { id: string; tag: string }[] };
+    const x1 = design.sections.find((s) => s.tag === "X1")!;
+    const t = (await (await api.post(`/api/v1/projects/${projectId}/traverses`, { data: { sectionId: x1.id, method: "log-linear", air: { dryBulbC: 17, relativeHumidityPct: 50, staticPa: -150 } } })).json()).traverse;
+    await page.goto(`/projects/${projectId}/traverses/${t.id}`);
+    await expect(page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ })).toBeVisible();
+    await waitUntilKeptForOffline(page);
+
+    await goOffline(context);
+    await page.reload();
+    await expect(page.getByRole("heading", { name: /Traverse of X1\b/ })).toBeVisible();
+    // The live engine comes after the page: typed values still get their numbers on the tablet.
+    await page.getByRole("textbox", { name: /Diameter 1, Point 1\b/ }).focus();
+    await typeLine(page, ["21.5"]);
+    await expect(page.getByText("No network: the readings are sent when the connection returns.")).toBeVisible();
+    await expect(page.getByText(/^Computed on this tablet as you type/)).toBeVisible();
+    await expect(page.getByTestId("mean-velocity")).toHaveText(/\d/);
+    // The chart is drawn once its place comes near the screen.
+    await page.getByRole("heading", { name: "Velocity profile" }).scrollIntoViewIfNeeded();
+    await expect(page.getByRole("img", { name: /Velocity profile of X1\b/ })).toBeVisible();
+    // So do the air editor, the meter import and the instrument and conditions editor.
+    await expect(page.getByRole("textbox", { name: /^Dry-bulb/ })).toBeVisible();
+    await page.getByText("Import readings from a meter's file").click();
+    await expect(page.getByLabel("Meter file (CSV)")).toBeVisible();
+    await page.getByRole("button", { name: "Change instruments or conditions" }).click();
+    await expect(page.getByRole("group", { name: /^Manometer/ })).toBeVisible();
+    await expect(page.getByText(/could not be loaded without network/)).toHaveCount(0);
+
+    await goOnline(context);
+    await expect(page.getByRole("status").filter({ hasText: "The server has the readings." })).toBeVisible({ timeout: 30_000 });
+    expect((await (await api.get(`/api/v1/projects/${projectId}/traverses/${t.id}`)).json()).traverse.readings[0][0]).toBe(21.5);
+    await api.dispose();
+  });
 
   test("a save made elsewhere first shows both grids side by side, and nothing is overwritten until the technician chooses", async ({ page, context, playwright, baseURL }) => {
     const projectId = await openFieldWork(page);

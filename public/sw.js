@@ -27,7 +27,7 @@ async function setOwner(owner) {
   await (await caches.open(META_CACHE)).put(OWNER_KEY, new Response(owner));
 }
 
-async function keep(page, files) {
+async function keepFiles(files) {
   const statics = await caches.open(STATIC_CACHE);
   await Promise.all(
     files.slice(0, 300).map(async (url) => {
@@ -37,6 +37,10 @@ async function keep(page, files) {
       }
     }),
   );
+}
+
+async function keep(page, files) {
+  await keepFiles(files);
   // The page itself was loaded before this worker controlled it: fetch a copy now.
   const res = await fetch(page, { credentials: "same-origin" }).catch(() => null);
   if (res && res.ok && !res.redirected) await (await caches.open(PAGE_CACHE)).put(page, res);
@@ -53,6 +57,7 @@ self.addEventListener("message", (event) => {
   const data = event.data || {};
   if (data.type === "owner" && typeof data.owner === "string") inOrder(event, () => setOwner(data.owner));
   else if (data.type === "keep" && typeof data.page === "string" && Array.isArray(data.files)) inOrder(event, () => keep(data.page, data.files.filter((f) => typeof f === "string")));
+  else if (data.type === "keep-files" && Array.isArray(data.files)) inOrder(event, () => keepFiles(data.files.filter((f) => typeof f === "string")));
   else if (data.type === "forget-pages") inOrder(event, () => caches.delete(PAGE_CACHE));
 });
 

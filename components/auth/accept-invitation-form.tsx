@@ -1,7 +1,5 @@
 "use client";
 
-// First: the schemas imported below must be built without zod's eval probe (our CSP forbids eval).
-import "@/lib/validation/zod-browser";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";

@@ -17,7 +17,7 @@ import { useSyncQueue } from "@/lib/offline/offline-context";
 import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
 import { displayUnit, fromDisplay, type UnitSystem } from "@/lib/units";
 import { BOX_OVERRIDES, conditionsCreateSchema, FILTER_STATES } from "@/lib/validation/conditions";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { zodFieldErrors } from "@/lib/validation/result";
 
 export interface ConditionsSystem {

@@ -15,7 +15,7 @@ import { INSTRUMENT_KINDS, KIND_INFO } from "@/lib/instruments/kinds";
 import { kindUnit } from "@/lib/instruments/units";
 import { displayUnit, fromDisplay, toDisplay, type UnitSystem } from "@/lib/units";
 import { instrumentCreateSchema, instrumentRecordProblems } from "@/lib/validation/instruments";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { zodFieldErrors } from "@/lib/validation/result";
 
 type FieldName =

@@ -13,7 +13,7 @@ import { ApiError } from "@/lib/api-client";
 import { reviewApi, reviewKeys, type Sample } from "@/lib/api-client/review";
 import { summarizeConditions, type ConditionsLike } from "@/lib/airflow/conditions";
 import { displayUnit, formatQuantity, fromDisplay, type UnitSystem } from "@/lib/units";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { DecisionForm } from "./decision-form";
 
 export interface SampleSystem {

@@ -10,7 +10,7 @@ import { FORM_UNITS } from "@/lib/design/quantities";
 import { calibrationProblems } from "@/lib/instruments/usability";
 import { setpointsFor, type ReadingMethod, type ReadingPhase } from "@/lib/terminals/setpoints";
 import { fromDisplay, type UnitSystem } from "@/lib/units";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { zodFieldErrors } from "@/lib/validation/result";
 import { terminalReadingCreateSchema, type VELOCITY_BASES } from "@/lib/validation/terminal-readings";
 import { isTerminalUnit } from "@/lib/validation/design";

@@ -10,7 +10,7 @@ import { ChoiceGroup } from "@/components/ui/choice-group";
 import type { DraftAir } from "@/lib/api-client/traverses";
 import { barometricPressureFromAltitudePa } from "@/lib/airflow/air";
 import { displayUnit, formatQuantity, fromDisplay, toDisplay, type Quantity, type UnitSystem } from "@/lib/units";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { zodFieldErrors } from "@/lib/validation/result";
 import { traverseAirSchema } from "@/lib/validation/traverses";
 

@@ -4,7 +4,7 @@
  * engine's warnings. Where they came from is stated: this tablet, or the server's saved result.
  */
 import { pct } from "@/components/airflow/format";
-import { formatExpandedUncertainty } from "@/lib/airflow/uncertainty";
+import { formatExpandedUncertainty } from "@/lib/airflow/uncertainty-format";
 import type { TraverseResultJson } from "@/lib/traverse/result-types";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 

@@ -9,6 +9,7 @@ import { CategoryScale, Chart as ChartJS, Legend, LinearScale, LineElement, Poin
 import { Line } from "react-chartjs-2";
 import type { TraversePointJson } from "@/lib/traverse/result-types";
 import { displayUnit, toDisplay, type UnitSystem } from "@/lib/units";
+import { numberText } from "@/lib/units/number-text";
 
 ChartJS.register(LinearScale, CategoryScale, PointElement, LineElement, Tooltip, Legend);
 
@@ -24,7 +25,25 @@ const STYLES = [
 ] as const;
 const SHADES = ["#0d5c8c", "#111a22", "#8a5a00", "#1d6b3a", "#a3261b", "#52606d", "#083f61"];
 
-export default function ProfileChart({ points, lines, units, round, label }: { points: TraversePointJson[]; lines: number; units: UnitSystem; round: boolean; label: string }) {
+/**
+ * chart.js's own numeric tick label (decimals from the tick spacing), in en-US like every other figure
+ * on the screen and without Intl, whose first number formatter costs a slow tablet a tenth of a second.
+ * Velocities and distances never reach the range where chart.js switches to scientific notation.
+ */
+export function tickLabel(value: number | string, _index: number, ticks: readonly { value: number }[]): string {
+  const v = Number(value);
+  if (v === 0) return "0";
+  let delta = v;
+  if (ticks.length > 1) {
+    delta = ticks.length > 3 ? ticks[2]!.value - ticks[1]!.value : ticks[1]!.value - ticks[0]!.value;
+    if (Math.abs(delta) >= 1 && v !== Math.floor(v)) delta = v - Math.floor(v);
+  }
+  const logDelta = Math.log10(Math.abs(delta));
+  const decimals = Number.isNaN(logDelta) ? 1 : Math.max(Math.min(-Math.floor(logDelta), 20), 0);
+  return numberText(v, decimals);
+}
+
+export function ProfileChart({ points, lines, units, round, label }: { points: readonly TraversePointJson[]; lines: number; units: UnitSystem; round: boolean; label: string }) {
   const v = displayUnit(units, "velocity");
   const d = displayUnit(units, "dimension");
   const datasets = Array.from({ length: lines }, (_, k) => {
@@ -55,8 +74,8 @@ export default function ProfileChart({ points, lines, units, round, label }: { p
           maintainAspectRatio: false,
           parsing: false,
           scales: {
-            x: { type: "linear", title: { display: true, text: `Distance from the port wall (${d.symbol})` } },
-            y: { type: "linear", beginAtZero: true, title: { display: true, text: `Velocity (${v.symbol})` } },
+            x: { type: "linear", title: { display: true, text: `Distance from the port wall (${d.symbol})` }, ticks: { callback: tickLabel } },
+            y: { type: "linear", beginAtZero: true, title: { display: true, text: `Velocity (${v.symbol})` }, ticks: { callback: tickLabel } },
           },
           plugins: { legend: { position: "bottom", labels: { usePointStyle: true } } },
         }}

@@ -12,7 +12,7 @@ import type { CellFlag } from "@/lib/traverse/plausibility";
 import type { Grid, PointRef } from "@/lib/traverse/engine-input";
 import type { TraversePointJson } from "@/lib/traverse/result-types";
 import { displayUnit, formatQuantity, fromDisplay, toDisplay, type Quantity, type UnitSystem } from "@/lib/units";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 
 export interface ReadingGridProps {
   readings: Grid;

@@ -25,7 +25,7 @@ import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
 import { camelKeys } from "@/lib/traverse/engine-input";
 import type { LayoutJson } from "@/lib/traverse/result-types";
 import { displayUnit, formatQuantity, fromDisplay, type UnitSystem } from "@/lib/units";
-import { parseDecimal } from "@/lib/validation/fields";
+import { parseDecimal } from "@/lib/validation/decimal";
 import { zodFieldErrors } from "@/lib/validation/result";
 import { traverseCreateSchema, type ReadingsKind } from "@/lib/validation/traverses";
 import { CrossSection } from "./cross-section";

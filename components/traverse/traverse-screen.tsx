@@ -7,35 +7,54 @@
  * grid when the network is there. A version conflict shows both grids and waits for a choice. The
  * engine runs in the browser for the live numbers; once saved, the server's result is shown (the same
  * calculation through the same input mapping).
+ *
+ * What the first paint needs comes with the page: the plane, the grid, the results as the server
+ * computed them. The engine (needed only once something is typed), the chart, the air editor and the
+ * editors behind a button or a closed panel arrive after the page is up (later-parts.ts), each in its
+ * own small task, and are kept on the device for use without network.
  */
-import dynamic from "next/dynamic";
 import { useCallback, useDeferredValue, useEffect, useId, useMemo, useRef, useState } from "react";
-import { ConflictChoice } from "@/components/offline/conflict-choice";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { draftOf, readingsRequest, traverseDraftKey, type Traverse, type TraverseDraft } from "@/lib/api-client/traverses";
-import { summarizeConditions } from "@/lib/airflow/conditions";
+import { summarizeConditions } from "@/lib/airflow/conditions-summary";
 import { useOfflineDraft } from "@/lib/offline/use-offline-draft";
-import { camelKeys, engineSourceOf, reduceTraverseSource, type Grid, type PointRef } from "@/lib/traverse/engine-input";
+import type { Grid, PointRef } from "@/lib/traverse/engine-input";
 import { plausibilityFlags } from "@/lib/traverse/plausibility";
 import type { TraversePointJson, TraverseResultJson } from "@/lib/traverse/result-types";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { buttonClasses } from "@/components/ui/button";
+import { laterPart } from "@/components/ui/later-part";
 import { SubmitPanel } from "@/components/review/submit-panel";
-import { reviewApi } from "@/lib/api-client/review";
 import { traverseSubmissionProblemsOf } from "@/lib/review/submission";
-import { AirEditor } from "./air-editor";
-import { ChartBoundary } from "./chart-boundary";
-import { KitEditor } from "./kit-editor";
-import { CrossSection } from "./cross-section";
-import { InsertionDepths } from "./insertion-depths";
-import { LiveResults } from "./live-results";
-import { MeterImport } from "./meter-import";
-import { ReadingGrid, readingText } from "./reading-grid";
+import { fetchAfterLoad, loadAirEditor, loadChart, loadGridConflict, loadKitEditor, loadLiveEngine, loadLiveResults, loadMeterImport, loadVelocityViews } from "./later-parts";
+import { resultsHeadingId } from "./results-heading";
+import { ReadingGrid } from "./reading-grid";
+import { useLiveEngine } from "./use-live-engine";
 
-const loadChart = () => import("./profile-chart");
-const ProfileChart = dynamic(loadChart, {
-  ssr: false,
-  loading: () => <p className="text-ink-soft">Loading the profile chart…</p>,
+const OFFLINE_NOTE = "The readings, the results and what you type keep working; reload the page when the connection returns.";
+const AirEditor = laterPart(loadAirEditor, (m) => m.AirEditor, {
+  loading: "Loading the air editor…",
+  unavailable: `The air editor could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const KitEditor = laterPart(loadKitEditor, (m) => m.KitEditor, {
+  loading: "Loading the instruments and conditions…",
+  unavailable: `The instruments and conditions could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const LiveResults = laterPart(loadLiveResults, (m) => m.LiveResults, {
+  loading: "Loading the results…",
+  unavailable: `The results could not be shown without network. ${OFFLINE_NOTE}`,
+});
+const VelocityViews = laterPart(loadVelocityViews, (m) => m.VelocityViews, {
+  loading: "Drawing the velocity map and profile…",
+  unavailable: `The velocity map and profile could not be loaded without network. ${OFFLINE_NOTE}`,
+});
+const GridConflict = laterPart(loadGridConflict, (m) => m.GridConflict, {
+  loading: "Another version of these readings is on the server: loading both to compare…",
+  unavailable: `Another version of these readings is on the server, and the comparison could not be loaded without network. Nothing has been overwritten; reload the page when the connection returns.`,
+});
+const MeterImport = laterPart(loadMeterImport, (m) => m.MeterImport, {
+  loading: "Loading the meter import…",
+  unavailable: `The meter import could not be loaded without network. ${OFFLINE_NOTE}`,
 });
 
 export interface TraverseScreenProps {
@@ -45,9 +64,21 @@ export interface TraverseScreenProps {
   /** The signed-in user may record readings (technicians); others see the traverse read-only. */
   canRecord: boolean;
   tolerance: { minusPct: number; plusPct: number };
+  /** The insertion depths beside the drawing (components/traverse/insertion-depths.tsx), drawn by the server: they never change on the tablet. */
+  insertionDepths: React.ReactNode;
+  /**
+   * The results of `initial` as the server drew them (components/traverse/live-results.tsx, with
+   * `resultsHeadingId`), shown while they are current: the same component draws newer ones on the
+   * tablet, so the page does not carry it in its first load.
+   */
+  initialResults: React.ReactNode;
+  /** The plane (components/traverse/cross-section.tsx without values), drawn by the server; the point being typed at is marked on it here. */
+  plane: React.ReactNode;
+  /** The velocity map and profile of `initial` (components/traverse/velocity-views.tsx), drawn by the server, shown while current. */
+  initialViews: React.ReactNode;
 }
 
-export function TraverseScreen({ projectId, initial, units, canRecord, tolerance }: TraverseScreenProps) {
+export function TraverseScreen({ projectId, initial, units, canRecord, tolerance, insertionDepths, initialResults, plane, initialViews }: TraverseScreenProps) {
   const resultsId = useId();
   const resultsRef = useRef<HTMLHeadingElement>(null);
   const editable = canRecord && (initial.status === "draft" || initial.status === "returned");
@@ -63,20 +94,31 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   const server = draft.server ?? initial;
   const value = draft.value;
   const [focused, setFocused] = useState<string | null>(null);
-  const [changingKit, setChangingKit] = useState(false);
-  // Not in the first load, but fetched once the page is up, so the chart is on the device (and kept by
-  // the service worker) before the network goes.
+  // The plane is the server's drawing: the point being typed at is marked on it here (app/globals.css draws the mark).
+  const planeRef = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    const idle = window.setTimeout(() => void loadChart().catch(() => undefined), 500);
-    return () => window.clearTimeout(idle);
-  }, []);
+    const point = focused ? planeRef.current?.querySelector(`[data-point="${focused}"]`) : null;
+    point?.setAttribute("data-focused", "");
+    return () => point?.removeAttribute("data-focused");
+  }, [focused]);
+  const [changingKit, setChangingKit] = useState(false);
+  // The meter import stays in place once opened, so closing the panel keeps a file being looked at.
+  const [importOpened, setImportOpened] = useState(false);
+  // Not in the first load, but fetched once the page is up, so every part is on the device (and kept by
+  // the service worker) before the network goes.
+  useEffect(() => fetchAfterLoad(editable ? [loadLiveEngine, loadLiveResults, loadVelocityViews, loadChart, loadAirEditor, loadMeterImport, loadKitEditor, loadGridConflict] : [loadChart]), [editable]);
   const round = server.section.shape === "round";
   const quantity = server.readingsKind === "velocity_pressure" ? ("pressure" as const) : ("velocity" as const);
+
+  const synced = draft.syncState === "saved" && server.version === draft.version;
+  // The server's result stands for what it has; the tablet computes only what it does not have yet.
+  const { engine, failed: engineFailed } = useLiveEngine({ soon: editable, now: !synced });
 
   // The same engine source the server builds, with the air and readings held on this device.
   const air = value.air ?? { dryBulbC: server.air.dryBulbC, relativeHumidityPct: server.air.relativeHumidityPct, wetBulbC: server.air.wetBulbC, staticPa: server.air.staticPa, barometricPa: server.air.barometricPa };
   const live = useMemo(() => {
-    const source = engineSourceOf(
+    if (synced || !engine) return null;
+    const source = engine.engineSourceOf(
       {
         method: server.method,
         lines: server.lines,
@@ -96,14 +138,15 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
       server.section,
       server.project,
     );
-    return reduceTraverseSource(source, value.readings, value.unreadable);
-  }, [server, value.readings, value.unreadable, value.instrument.standardDensityKgM3, air.dryBulbC, air.relativeHumidityPct, air.wetBulbC, air.barometricPa, air.staticPa]);
+    const reduction = engine.reduceTraverseSource(source, value.readings, value.unreadable);
+    return { ...reduction, result: reduction.ok ? (engine.camelKeys(reduction.output) as TraverseResultJson) : null };
+  }, [synced, engine, server, value.readings, value.unreadable, value.instrument.standardDensityKgM3, air.dryBulbC, air.relativeHumidityPct, air.wetBulbC, air.barometricPa, air.staticPa]);
 
-  const synced = draft.syncState === "saved" && server.version === draft.version;
-  const result: TraverseResultJson | null = synced ? server.result : live.ok ? (camelKeys(live.output) as TraverseResultJson) : null;
-  const resultCounts = live.counts;
-  const shownResult = result ? { ...result, counts: result.counts ?? resultCounts } : null;
-  const problem = synced ? server.resultError?.message : live.ok ? null : live.message;
+  const result: TraverseResultJson | null = synced ? server.result : (live?.result ?? null);
+  const shownResult = result ? { ...result, counts: result.counts ?? live?.counts } : null;
+  const problem = synced ? server.resultError?.message : live && !live.ok ? live.message : null;
+  // Typed values the server has not computed yet, and the engine is still on its way.
+  const awaitingEngine = !synced && !live;
 
   const points = useMemo(() => new Map<string, TraversePointJson>((result?.points ?? []).map((p) => [`${p.line}:${p.point}`, p])), [result]);
   const reading = server.instrument.reading;
@@ -123,33 +166,14 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
   // goes on), so each key press re-renders only the grid and the results.
   const deferredResult = useDeferredValue(result);
   const deferredUnreadable = useDeferredValue(value.unreadable);
-  const mapAndChart = useMemo(() => {
-    if (!deferredResult || !layout || !deferredResult.points.some((p) => p.velocityMS !== null)) return null;
-    const byPoint = new Map(deferredResult.points.map((p) => [`${p.line}:${p.point}`, p]));
-    const velocities = layout.lines.map((l, k) => l.points.map((_, i) => byPoint.get(`${k}:${i}`)?.velocityMS ?? null));
-    const filled = new Map(deferredResult.points.filter((p) => p.filledVelocityMS !== undefined).map((p) => [`${p.line}:${p.point}`, p.filledVelocityMS!]));
-    const unreadableKeys = new Set(deferredUnreadable.map(([k, i]) => `${k}:${i}`));
-    return (
-      <div className="grid gap-gutter lg:grid-cols-2">
-        <section aria-labelledby={`${resultsId}-map`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-          <h2 id={`${resultsId}-map`}>Velocity map</h2>
-          <p className="text-sm text-ink-soft">Velocity at each point in {formatQuantity(units, "velocity", 0).replace(/^[-\d.,\s]+/, "")}; darker is faster. × unreadable, – not read, italics filled by the engine.</p>
-          <CrossSection
-            duct={duct}
-            layout={layout}
-            title={`Velocity map of ${server.sectionTag}`}
-            values={{ velocities, unreadable: unreadableKeys, filled, format: (ms) => formatQuantity(units, "velocity", ms, { withUnit: false, decimals: units === "IP" ? 0 : 1 }) }}
-          />
-        </section>
-        <section aria-labelledby={`${resultsId}-chart`} className="grid content-start gap-3 rounded-card border border-line bg-paper-raised p-gutter">
-          <h2 id={`${resultsId}-chart`}>Velocity profile</h2>
-          <ChartBoundary>
-            <ProfileChart points={deferredResult.points} lines={server.lines} units={units} round={round} label={`Velocity profile of ${server.sectionTag} along each ${round ? "diameter" : "line"}`} />
-          </ChartBoundary>
-        </section>
-      </div>
-    );
-  }, [deferredResult, deferredUnreadable, layout, duct, units, server.sectionTag, server.lines, round, resultsId]);
+  // What the server drew (results, map and chart) stands while it is current.
+  const showsInitial = synced && server.version === initial.version;
+  const views =
+    showsInitial && initialViews ? (
+      initialViews
+    ) : deferredResult && layout && deferredResult.points.some((p) => p.velocityMS !== null) ? (
+      <VelocityViews points={deferredResult.points} unreadable={deferredUnreadable} layout={layout} duct={duct} units={units} sectionTag={server.sectionTag} lines={server.lines} round={round} />
+    ) : null;
   const hasReadings = value.readings.some((row) => row.some((v) => v !== null));
 
   const setGrid = (next: { readings: Grid; unreadable: PointRef[] }) => draft.setValue((prev) => ({ ...prev, readings: next.readings, unreadable: next.unreadable }));
@@ -178,7 +202,8 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           pendingOnDevice={draft.syncState !== "saved"}
           online={draft.online}
           lastReview={initial.lastReview}
-          onSubmit={() => reviewApi.submitTraverse(projectId, initial.id)}
+          // The review client is fetched on the press: a submission needs the network anyway.
+          onSubmit={() => import("@/lib/api-client/review").then(({ reviewApi }) => reviewApi.submitTraverse(projectId, initial.id))}
         />
       )}
       {!canRecord && initial.lastReview && (
@@ -195,20 +220,15 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </p>
       )}
       {draft.conflict && (
-        <ConflictChoice
-          conflict={draft.conflict}
-          what={`readings of ${server.sectionTag}`}
-          onChoose={(c) => draft.resolveConflict(c)}
-          render={(d) => <GridSummary readings={d.readings} unreadable={d.unreadable} quantity={quantity} units={units} round={round} />}
-        />
+        <GridConflict conflict={draft.conflict} what={`readings of ${server.sectionTag}`} onChoose={(c) => draft.resolveConflict(c)} quantity={quantity} units={units} round={round} />
       )}
 
       <section aria-labelledby={`${resultsId}-plane`} className="grid gap-4 rounded-card border border-line bg-paper-raised p-gutter">
         <h2 id={`${resultsId}-plane`}>Plane and probe marks</h2>
         {layout ? (
           <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-            <CrossSection duct={duct} layout={layout} title={`Cross-section of ${server.sectionTag} with the numbered traverse points and ports`} highlight={focused} />
-            <InsertionDepths layout={layout} units={units} portOffsetMm={server.portOffsetMm} round={round} />
+            <div ref={planeRef}>{plane}</div>
+            {insertionDepths}
           </div>
         ) : (
           <p className="text-fault">The layout could not be drawn.</p>
@@ -241,24 +261,26 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
             onFocusPoint={setFocused}
           />
           {editable && (
-            <details className="rounded-card border border-line p-3">
+            <details className="rounded-card border border-line p-3" onToggle={(e) => e.currentTarget.open && setImportOpened(true)}>
               <summary className="min-h-touch cursor-pointer py-2 font-semibold">Import readings from a meter&apos;s file</summary>
-              <MeterImport
-                lines={server.lines}
-                pointsPerLine={server.pointsPerLine}
-                kind={quantity}
-                units={units}
-                round={round}
-                hasReadings={hasReadings}
-                onAccept={(grid) =>
-                  draft.setValue((prev) => ({
-                    ...prev,
-                    readings: grid,
-                    // A point the file gives a value for is read after all.
-                    unreadable: prev.unreadable.filter(([k, i]) => grid[k]?.[i] === null),
-                  }))
-                }
-              />
+              {importOpened && (
+                <MeterImport
+                  lines={server.lines}
+                  pointsPerLine={server.pointsPerLine}
+                  kind={quantity}
+                  units={units}
+                  round={round}
+                  hasReadings={hasReadings}
+                  onAccept={(grid) =>
+                    draft.setValue((prev) => ({
+                      ...prev,
+                      readings: grid,
+                      // A point the file gives a value for is read after all.
+                      unreadable: prev.unreadable.filter(([k, i]) => grid[k]?.[i] === null),
+                    }))
+                  }
+                />
+              )}
             </details>
           )}
         </section>
@@ -267,8 +289,16 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           <h2 id={`${resultsId}-results`} ref={resultsRef} tabIndex={-1}>
             Results
           </h2>
-          {shownResult ? (
-            <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={`${resultsId}-verdict`} />
+          {shownResult && synced && server.version === initial.version && initialResults ? (
+            initialResults
+          ) : shownResult ? (
+            <LiveResults result={shownResult} units={units} designFlowM3S={server.section.designFlowM3S} tolerance={tolerance} source={synced ? { kind: "server", version: server.version } : { kind: "tablet", version: null }} headingId={resultsHeadingId(initial.id)} />
+          ) : awaitingEngine ? (
+            <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
+              {engineFailed
+                ? "The results are worked out on this tablet, and the part that does it could not be loaded without network. What you type is kept on this tablet and sent when the connection returns; reload the page then to see the results."
+                : "Working out the results on this tablet…"}
+            </p>
           ) : (
             <p className="rounded-card border border-dashed border-line-strong p-3 text-ink-soft" aria-live="polite">
               {problem ?? "No readings yet."} {problem === "No readings yet." || !problem ? "Results appear as soon as the first value lands." : ""}
@@ -290,7 +320,7 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
         </section>
       </div>
 
-      {mapAndChart}
+      {views}
 
       {editable && (
         <section aria-labelledby={`${resultsId}-air`} className="grid gap-3 rounded-card border border-line bg-paper-raised p-gutter">
@@ -318,32 +348,6 @@ export function TraverseScreen({ projectId, initial, units, canRecord, tolerance
           )}
         </section>
       )}
-    </div>
-  );
-}
-
-/** One version of the grid, compact, for the conflict choice. */
-function GridSummary({ readings, unreadable, quantity, units, round }: { readings: Grid; unreadable: readonly PointRef[]; quantity: "pressure" | "velocity"; units: UnitSystem; round: boolean }) {
-  const blocked = new Set(unreadable.map(([k, i]) => `${k}:${i}`));
-  return (
-    <div className="overflow-x-auto">
-      <table className="border-collapse text-right text-sm">
-        <caption className="sr-only">Readings by {round ? "diameter" : "line"} and point</caption>
-        <tbody>
-          {readings.map((row, k) => (
-            <tr key={k} className="border-t border-line">
-              <th scope="row" className="px-1 text-left">
-                {k + 1}
-              </th>
-              {row.map((v, i) => (
-                <td key={i} className="num px-1">
-                  {blocked.has(`${k}:${i}`) ? "×" : v === null ? "–" : readingText(v, quantity, units)}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
     </div>
   );
 }

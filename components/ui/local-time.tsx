@@ -1,10 +1,9 @@
 "use client";
 
 import { useSyncExternalStore } from "react";
+import { formatDayTime } from "@/lib/day-time";
 
 const noop = () => () => {};
-const dateTime = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
-const utc = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", timeZone: "UTC" });
 
 /**
  * A moment in the reader's own time zone ("24 Nov 2026, 09:40"). The server does not know the
@@ -16,7 +15,7 @@ export function LocalTime({ iso, className }: { iso: string; className?: string 
   if (Number.isNaN(d.getTime())) return <span className={className}>{iso}</span>;
   return (
     <time dateTime={d.toISOString()} className={className}>
-      {hydrated ? dateTime.format(d) : `${utc.format(d)} UTC`}
+      {hydrated ? formatDayTime(d) : `${formatDayTime(d, { utc: true })} UTC`}
     </time>
   );
 }

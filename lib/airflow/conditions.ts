@@ -7,20 +7,9 @@
  * Tolerances are marked by where they come from. Pure functions, SI units (Pa), no I/O.
  */
 
-export type BoxOverride = "none" | "maximum" | "minimum" | "mixed";
-export type FilterState = "clean" | "part_loaded" | "loaded" | "unknown";
+import { BOX_LABELS, defaultPressure, FILTER_LABELS, roundedText, type ConditionsLike } from "./conditions-summary";
 
-export interface ConditionsLike {
-  id?: string;
-  fanSpeedRpm: number | null;
-  vfdHz: number | null;
-  boxes: BoxOverride;
-  /** Outside-air (economizer) damper, % open. */
-  outsideAirDamperPct: number | null;
-  /** Duct static pressure set point, Pa (gauge). */
-  ductStaticSetpointPa: number | null;
-  filterState: FilterState;
-}
+export { BOX_LABELS, FILTER_LABELS, summarizeConditions, type BoxOverride, type ConditionsLike, type FilterState } from "./conditions-summary";
 
 export interface ConditionTolerances {
   /** Fan speeds within this % of each other are the same condition. */
@@ -67,26 +56,6 @@ export interface CompareOptions {
   tolerances?: Partial<ConditionTolerances>;
 }
 
-export const BOX_LABELS: Readonly<Record<BoxOverride, string>> = {
-  none: "left to their controls",
-  maximum: "forced to maximum",
-  minimum: "forced to minimum",
-  mixed: "some forced, some not",
-};
-
-export const FILTER_LABELS: Readonly<Record<FilterState, string>> = {
-  clean: "clean",
-  part_loaded: "part loaded",
-  loaded: "loaded (due for change)",
-  unknown: "not checked",
-};
-
-const defaultPressure = (pa: number) => `${round(pa, 0)} Pa`;
-
-function round(value: number, decimals: number): string {
-  return new Intl.NumberFormat("en-US", { maximumFractionDigits: decimals, minimumFractionDigits: 0 }).format(value);
-}
-
 /** |a − b| as % of their mean: symmetric, so comparing A with B or B with A gives the same answer. */
 export function relativeDifferencePct(a: number, b: number): number {
   const mean = (Math.abs(a) + Math.abs(b)) / 2;
@@ -117,10 +86,10 @@ export function compareConditions(a: ConditionsLike | null, b: ConditionsLike | 
   if (a.fanSpeedRpm !== null && b.fanSpeedRpm !== null) {
     const pct = relativeDifferencePct(a.fanSpeedRpm, b.fanSpeedRpm);
     if (pct > tol.fanSpeedPct)
-      differs("fanSpeed", `Fan speed: ${round(a.fanSpeedRpm, 0)} rpm for ${la}, ${round(b.fanSpeedRpm, 0)} rpm for ${lb} (${round(pct, 1)} % apart; more than ${tol.fanSpeedPct} %).`);
+      differs("fanSpeed", `Fan speed: ${roundedText(a.fanSpeedRpm, 0)} rpm for ${la}, ${roundedText(b.fanSpeedRpm, 0)} rpm for ${lb} (${roundedText(pct, 1)} % apart; more than ${tol.fanSpeedPct} %).`);
   } else if (a.vfdHz !== null && b.vfdHz !== null) {
     const hz = Math.abs(a.vfdHz - b.vfdHz);
-    if (hz > tol.vfdHz) differs("fanSpeed", `Drive frequency: ${round(a.vfdHz, 1)} Hz for ${la}, ${round(b.vfdHz, 1)} Hz for ${lb} (${round(hz, 1)} Hz apart; more than ${tol.vfdHz} Hz).`);
+    if (hz > tol.vfdHz) differs("fanSpeed", `Drive frequency: ${roundedText(a.vfdHz, 1)} Hz for ${la}, ${roundedText(b.vfdHz, 1)} Hz for ${lb} (${roundedText(hz, 1)} Hz apart; more than ${tol.vfdHz} Hz).`);
   } else if (a.fanSpeedRpm !== null || a.vfdHz !== null || b.fanSpeedRpm !== null || b.vfdHz !== null) {
     unknown("fanSpeed", `Fan speed was recorded as ${describeSpeed(a)} for ${la} and as ${describeSpeed(b)} for ${lb}; they cannot be compared.`);
   } else {
@@ -132,7 +101,7 @@ export function compareConditions(a: ConditionsLike | null, b: ConditionsLike | 
   if (a.outsideAirDamperPct !== null && b.outsideAirDamperPct !== null) {
     const points = Math.abs(a.outsideAirDamperPct - b.outsideAirDamperPct);
     if (points > tol.damperPoints)
-      differs("outsideAirDamperPct", `Outside-air damper: ${round(a.outsideAirDamperPct, 0)} % open for ${la}, ${round(b.outsideAirDamperPct, 0)} % for ${lb} (more than ${tol.damperPoints} points apart).`);
+      differs("outsideAirDamperPct", `Outside-air damper: ${roundedText(a.outsideAirDamperPct, 0)} % open for ${la}, ${roundedText(b.outsideAirDamperPct, 0)} % for ${lb} (more than ${tol.damperPoints} points apart).`);
   } else if (a.outsideAirDamperPct !== null || b.outsideAirDamperPct !== null) {
     unknown("outsideAirDamperPct", `Outside-air damper position was recorded for ${a.outsideAirDamperPct !== null ? la : lb} only.`);
   }
@@ -155,8 +124,8 @@ export function compareConditions(a: ConditionsLike | null, b: ConditionsLike | 
 }
 
 function describeSpeed(c: ConditionsLike): string {
-  if (c.fanSpeedRpm !== null) return `${round(c.fanSpeedRpm, 0)} rpm`;
-  if (c.vfdHz !== null) return `${round(c.vfdHz, 1)} Hz at the drive`;
+  if (c.fanSpeedRpm !== null) return `${roundedText(c.fanSpeedRpm, 0)} rpm`;
+  if (c.vfdHz !== null) return `${roundedText(c.vfdHz, 1)} Hz at the drive`;
   return "nothing";
 }
 
@@ -182,18 +151,6 @@ export function compareConditionsAcross(sets: readonly { label: string; conditio
   return out;
 }
 
-/** "1,150 rpm · terminal units forced to maximum · outside-air damper 30 % open · static set point 250 Pa · filters clean". */
-export function summarizeConditions(c: ConditionsLike, formatPressure: (pa: number) => string = defaultPressure): string {
-  const parts: string[] = [];
-  if (c.fanSpeedRpm !== null) parts.push(`${round(c.fanSpeedRpm, 0)} rpm`);
-  if (c.vfdHz !== null) parts.push(`drive ${round(c.vfdHz, 1)} Hz`);
-  parts.push(`terminal units ${BOX_LABELS[c.boxes]}`);
-  if (c.outsideAirDamperPct !== null) parts.push(`outside-air damper ${round(c.outsideAirDamperPct, 0)} % open`);
-  if (c.ductStaticSetpointPa !== null) parts.push(`static set point ${formatPressure(c.ductStaticSetpointPa)}`);
-  parts.push(`filters ${FILTER_LABELS[c.filterState]}`);
-  return parts.join(" · ");
-}
-
 /** What the system was designed to run at, for plausibility checks. */
 export interface SystemSchedule {
   fanSpeedRpm: number | null;
@@ -216,11 +173,11 @@ export function conditionsWarnings(c: ConditionsLike, system: SystemSchedule): s
     const pct = (100 * (c.fanSpeedRpm - system.fanSpeedRpm)) / system.fanSpeedRpm;
     if (Math.abs(pct) > FAN_SPEED_CHECK_PCT)
       out.push(
-        `Fan speed ${round(c.fanSpeedRpm, 0)} rpm is ${round(Math.abs(pct), 0)} % ${pct > 0 ? "above" : "below"} the scheduled ${round(system.fanSpeedRpm, 0)} rpm: check that the tachometer read the fan, not the motor pulley.`,
+        `Fan speed ${roundedText(c.fanSpeedRpm, 0)} rpm is ${roundedText(Math.abs(pct), 0)} % ${pct > 0 ? "above" : "below"} the scheduled ${roundedText(system.fanSpeedRpm, 0)} rpm: check that the tachometer read the fan, not the motor pulley.`,
       );
   }
   if (c.vfdHz !== null && (c.vfdHz < VFD_USUAL_HZ.min || c.vfdHz > VFD_USUAL_HZ.max))
-    out.push(`Drive frequency ${round(c.vfdHz, 1)} Hz is outside the usual ${VFD_USUAL_HZ.min}–${VFD_USUAL_HZ.max} Hz: check the drive display.`);
+    out.push(`Drive frequency ${roundedText(c.vfdHz, 1)} Hz is outside the usual ${VFD_USUAL_HZ.min}–${VFD_USUAL_HZ.max} Hz: check the drive display.`);
   if (c.vfdHz !== null && !system.hasVfd) out.push("A drive frequency was recorded, but the system is not scheduled with a variable-frequency drive.");
   return out;
 }

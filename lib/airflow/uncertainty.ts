@@ -32,6 +32,7 @@
  */
 import { barometricPressureFromAltitudePa, densityOf, type AirConditions } from "./air";
 import { ASSUMED_STATIC_UNCERTAINTY_PA } from "./constants";
+import { COVERAGE_FACTOR } from "./uncertainty-format";
 import type { Duct } from "./layout";
 
 /**
@@ -79,9 +80,7 @@ export const DEFAULT_INSTRUMENT_ACCURACY: InstrumentAccuracy = {
 /** Day-to-day weather swing of station pressure about the standard atmosphere, a limit ±, used when only altitude is known (from memory). */
 export const ALTITUDE_BAROMETRIC_UNCERTAINTY_PA = 3000;
 
-
-/** Coverage factor of every reported uncertainty: k = 2, about 95 % for a near-normal result (GUM §6.2.1, §6.3.3). */
-export const COVERAGE_FACTOR = 2;
+export { COVERAGE_FACTOR, formatExpandedUncertainty } from "./uncertainty-format";
 
 const SQRT3 = Math.sqrt(3);
 
@@ -113,18 +112,6 @@ export function combineRelative(terms: UncertaintyTerms): number {
   // Infinity/NaN mix, where it answers Infinity.
   const sum = dimension * dimension + reading * reading + density * density + layout * layout + random * random + sampling * sampling;
   return Number.isFinite(sum) ? Math.sqrt(sum) : Math.hypot(dimension, reading, density, layout, random, sampling);
-}
-
-/**
- * An expanded uncertainty as screens and reports show it: "± 6.1 % (k = 2, about 95 %)".
- * `relative` is the expanded uncertainty as a fraction (0.061). Not finite → says it cannot be given.
- */
-export function formatExpandedUncertainty(relative: number, options: { digits?: number; coverageFactor?: number } = {}): string {
-  const k = options.coverageFactor ?? COVERAGE_FACTOR;
-  const coverage = k === 2 ? "about 95 %" : `k = ${k}`;
-  if (!Number.isFinite(relative)) return `not determinable (k = ${k}, ${coverage})`;
-  const digits = options.digits ?? 1;
-  return `± ${(relative * 100).toFixed(digits)} % (k = ${k}${k === 2 ? `, ${coverage}` : ""})`;
 }
 
 /** Relative uncertainty of the area: 2·u_D/D for round ducts, √((u_W/W)² + (u_H/H)²) for rectangular. */

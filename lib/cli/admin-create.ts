@@ -13,6 +13,7 @@ import { defaultDataDir, openDatabase } from "@/db/client";
 import { auditLog, users } from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { newPasswordSchema } from "@/lib/validation/auth";
+import "@/lib/validation/zod-browser";
 import { z } from "zod";
 
 function argument(name: string): string | undefined {

@@ -2,6 +2,7 @@
  * The JSON the API answers with for the design side (camelCase, SI), and zod descriptions of it for the
  * API document. The terminals table keeps the kind of device in its `type` column; the API calls it `kind`.
  */
+import "@/lib/validation/zod-browser";
 import { z } from "zod";
 import type { Terminal } from "@/db/schema";
 import { AIR_SERVICES, DUCT_SHAPES, SYSTEM_KINDS, TERMINAL_KINDS, type TerminalKind } from "@/lib/validation/design";

@@ -1,16 +1,20 @@
 "use client";
 
 /**
- * One sync queue per signed-in page, opened on the device's IndexedDB for that user. The provider also
+ * One sync queue per signed-in page, opened on the device's IndexedDB for that user. The queue's code
+ * (lib/offline/open-queue.ts) comes after the page is up: drawing a page does not need it, and values
+ * typed before it opens are held by useOfflineDraft and applied in order once it has. The provider also
  * asks the browser to keep the storage (not evict it under pressure), registers the service worker
  * that serves pages already seen when the network is gone, and nudges the queue when the page comes
  * back into view.
  */
 import { usePathname } from "next/navigation";
 import { createContext, useContext, useEffect, useState, useSyncExternalStore } from "react";
-import { openDraftStore } from "./draft-store";
-import { keepPageForOffline, registerOfflinePages } from "./service-worker";
-import { browserNetwork, SyncQueue } from "./sync-queue";
+import { keepLoadedFilesForOffline, keepPageForOffline, registerOfflinePages } from "./service-worker";
+import type { SyncQueue } from "./sync-queue";
+
+/** How long to wait before fetching the queue's code again after a failure (no network, never kept). */
+const QUEUE_RETRY_MS = 5000;
 
 /** undefined: no provider above (a bug); null: the queue is still opening. */
 const OfflineContext = createContext<SyncQueue | null | undefined>(undefined);
@@ -20,17 +24,28 @@ export function OfflineProvider({ owner, children }: { owner: string; children: 
 
   useEffect(() => {
     let cancelled = false;
-    let opened: SyncQueue | null = null;
-    let closeStore: (() => void) | null = null;
-    void openDraftStore().then(async (store) => {
-      if (cancelled) return store.close();
-      closeStore = () => store.close();
-      opened = new SyncQueue({ store, owner, network: browserNetwork() });
-      await opened.start();
-      if (!cancelled) setQueue(opened);
-    });
+    let opened: { queue: SyncQueue; close: () => void } | null = null;
+    let retry = 0;
+    const open = () => {
+      import("./open-queue")
+        .then(({ openSyncQueue }) => openSyncQueue(owner, () => cancelled))
+        .then(
+          (q) => {
+            if (!q) return;
+            if (cancelled) return q.close();
+            opened = q;
+            setQueue(q.queue);
+            // The queue's code may have arrived before the service worker took charge of the page.
+            keepLoadedFilesForOffline();
+          },
+          () => {
+            if (!cancelled) retry = window.setTimeout(open, QUEUE_RETRY_MS);
+          },
+        );
+    };
+    open();
     const onVisible = () => {
-      if (document.visibilityState === "visible") opened?.wake();
+      if (document.visibilityState === "visible") opened?.queue.wake();
     };
     document.addEventListener("visibilitychange", onVisible);
     // Ask the browser not to evict what technicians typed (granted silently for installed or often-used sites).
@@ -38,9 +53,9 @@ export function OfflineProvider({ owner, children }: { owner: string; children: 
     registerOfflinePages(owner);
     return () => {
       cancelled = true;
+      window.clearTimeout(retry);
       document.removeEventListener("visibilitychange", onVisible);
-      opened?.stop();
-      closeStore?.();
+      opened?.close();
       setQueue(null);
     };
   }, [owner]);

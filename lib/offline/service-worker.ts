@@ -51,6 +51,17 @@ export function keepPageForOffline(href: string): void {
     .catch(() => undefined);
 }
 
+/**
+ * Asks the service worker to keep the files this page has loaded by now, among them the parts it
+ * fetched after it was up (the traverse screen's engine, chart and editors), which may have arrived
+ * before the worker was in control of the page. Only for OFFLINE_PAGES; the page itself is kept on
+ * registration and navigation.
+ */
+export function keepLoadedFilesForOffline(): void {
+  if (!supported() || !OFFLINE_PAGES.some((re) => re.test(location.pathname))) return;
+  void navigator.serviceWorker.ready.then((reg) => reg.active?.postMessage({ type: "keep-files", files: loadedFiles() })).catch(() => undefined);
+}
+
 /** Signing out: the pages kept for offline use hold the user's data; drop them (drafts stay until sent). */
 export async function forgetOfflinePages(): Promise<void> {
   if (!supported()) return;

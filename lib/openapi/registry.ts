@@ -3,6 +3,7 @@
  * document cannot drift from what the server accepts. Each area lists its operations in
  * lib/openapi/operations/<area>.ts; lib/openapi/index.ts gathers them.
  */
+import "@/lib/validation/zod-browser";
 import { z, type ZodType } from "zod";
 
 export type HttpMethod = "get" | "post" | "put" | "patch" | "delete";

@@ -3,6 +3,7 @@
  * Decimals follow the resolution field instruments usually give (common practice).
  */
 import { UNITS, fromSi, toSi, type Quantity, type UnitId } from "./convert";
+import { numberText } from "./number-text";
 
 export type UnitSystem = "IP" | "SI";
 
@@ -59,16 +60,6 @@ export function fromDisplay(system: UnitSystem, quantity: Quantity, displayValue
   return toSi(quantity, displayValue, displayUnit(system, quantity).unit);
 }
 
-const formatters = new Map<number, Intl.NumberFormat>();
-function formatter(decimals: number): Intl.NumberFormat {
-  let f = formatters.get(decimals);
-  if (!f) {
-    f = new Intl.NumberFormat("en-US", { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
-    formatters.set(decimals, f);
-  }
-  return f;
-}
-
 /**
  * An engine value formatted for display, e.g. formatQuantity("IP", "flow", 0.4719) → "1,000 cfm".
  * `decimals` overrides the table; `withUnit: false` leaves the symbol off (for table cells under a unit header).
@@ -80,7 +71,7 @@ export function formatQuantity(
   options: { decimals?: number; withUnit?: boolean } = {},
 ): string {
   const d = displayUnit(system, quantity);
-  const text = formatter(options.decimals ?? d.decimals).format(toDisplay(system, quantity, engineValue));
+  const text = numberText(toDisplay(system, quantity, engineValue), options.decimals ?? d.decimals);
   // "-0" reads as a sign error in a report; show plain zero.
   const clean = /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
   return options.withUnit === false ? clean : `${clean} ${d.symbol}`;

@@ -3,6 +3,7 @@
  * `POST /api/v1/calc/<command>`. JSON is snake_case; lengths mm, pressures Pa, temperatures °C.
  * Every message names the value received and what is allowed; paths are dotted (`readings.1.3`).
  */
+import "./zod-browser";
 import { z } from "zod";
 import { airConditionErrors } from "@/lib/airflow/air";
 import { layoutCountProblem } from "@/lib/airflow/layout";

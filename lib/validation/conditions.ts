@@ -2,6 +2,7 @@
  * Operating conditions of an air system while readings are taken (camelCase, SI), shared by
  * `POST /api/v1/projects/{projectId}/systems/{systemId}/conditions` and the conditions form.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { describeValue } from "./calc";
 import { boundedText, clientId, enumOf, nullableNumber } from "./fields";

@@ -3,6 +3,7 @@
  * schemas serves the API (SI JSON) and the set-up forms, which convert what was typed to SI first and
  * build the schemas with their own units so every limit is stated in the units the person typed in.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { API_UNITS, formatIn, tidyNumber, type DesignQuantity, type DesignUnits } from "@/lib/design/quantities";
 

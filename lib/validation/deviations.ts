@@ -2,6 +2,7 @@
  * Accepting a result outside its tolerance, and withdrawing an acceptance (camelCase), shared by
  * `POST /api/v1/projects/{projectId}/deviations`, `POST …/deviations/{deviationId}/withdrawal` and the form.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { describeValue } from "./calc";
 import { boundedText, enumOf } from "./fields";

@@ -2,6 +2,7 @@
  * Small zod building blocks for resource JSON (camelCase, SI): every message names the value received
  * and what is allowed, as the calc schemas do.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { describeValue } from "./calc";
 
@@ -51,12 +52,4 @@ export function enumOf<const T extends readonly [string, ...string[]]>(values: T
   return z.enum(values, { error: (iss) => `must be one of ${values.map((v) => `"${v}"`).join(", ")} (${what}); got ${describeValue(iss.input)}` });
 }
 
-/** "1,5" is read as 1.5 (a decimal comma), "" as not stated; anything else that is not a number is an error. */
-export function parseDecimal(text: string): number | null | "invalid" {
-  const t = text.trim().replace(/\s/g, "");
-  if (t === "") return null;
-  const normal = /^-?\d+,\d+$/.test(t) ? t.replace(",", ".") : t;
-  if (!/^[-+]?(\d+\.?\d*|\.\d+)$/.test(normal)) return "invalid";
-  const n = Number(normal);
-  return Number.isFinite(n) ? n : "invalid";
-}
+export { parseDecimal } from "./decimal";

@@ -5,6 +5,7 @@
  * `instrumentRecordProblems`, run on the complete record: the create body, or the stored row with a
  * PATCH applied.
  */
+import "./zod-browser";
 import { z } from "zod";
 import type { InstrumentKind } from "@/db/schema";
 import { INSTRUMENT_KINDS, KIND_INFO } from "@/lib/instruments/kinds";

@@ -1,3 +1,4 @@
+import "./zod-browser";
 import { z } from "zod";
 
 /** `POST …/reports/approvals`: the caller approves the report's content as it stands, with an optional comment. */

@@ -3,6 +3,7 @@
  * set or a whole system; a verification sample's draw and the agent's own readings; the audit feed's
  * query. Shared by the routes under `/api/v1/projects/{projectId}` and the review screens.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { describeValue } from "./calc";
 import { boundedText, enumOf } from "./fields";

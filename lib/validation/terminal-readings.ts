@@ -4,6 +4,7 @@
  * Terminals screen. The fields of each method are checked together, and fields that belong to
  * another method are refused, so a reading never carries numbers that were not used.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { MAX_VELOCITY_READINGS } from "@/lib/airflow/terminal-flow";
 import { HOOD_FACTOR } from "./instruments";

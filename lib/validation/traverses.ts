@@ -4,6 +4,7 @@
  * traverse (the grid's shape, the layout counts for the section's duct, instrument kinds) are made by
  * lib/server/traverses.ts with the same wording.
  */
+import "./zod-browser";
 import { z } from "zod";
 import { describeValue, MAX_LINES, MAX_POINTS_PER_LINE } from "./calc";
 import { boundedText, clientId, enumOf, nullableNumber } from "./fields";

@@ -1,3 +1,4 @@
+import "@/lib/validation/zod-browser";
 import { z } from "zod";
 import type { Operation } from "../registry";
 import { markReadSchema } from "@/lib/validation/notifications";

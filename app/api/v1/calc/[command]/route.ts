@@ -1,4 +1,5 @@
 import { NextResponse } from "next/server";
+import "@/lib/validation/zod-browser";
 import { z } from "zod";
 import { runCalcCommand } from "@/lib/airflow/commands";
 import { defineRoute } from "@/lib/server/route";

@@ -5,13 +5,18 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ductSize } from "@/components/airflow/format";
 import { SyncStatusBanner } from "@/components/offline/sync-status-banner";
+import { CrossSection } from "@/components/traverse/cross-section";
+import { InsertionDepths } from "@/components/traverse/insertion-depths";
+import { LiveResults } from "@/components/traverse/live-results";
+import { resultsHeadingId } from "@/components/traverse/results-heading";
 import { TraverseScreen } from "@/components/traverse/traverse-screen";
+import { hasVelocities, VelocityViews } from "@/components/traverse/velocity-views";
 import { buttonClasses } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Cautions } from "@/components/ui/caution";
 import { LocalTime } from "@/components/ui/local-time";
 import { StatusBadge } from "@/components/ui/status";
-import { SectionPhotos } from "@/components/uploads/section-photos";
+import { SectionPhotosLater } from "@/components/uploads/section-photos-later";
 import { isUuid } from "@/db/queries/projects";
 import { getTraverseInProject } from "@/db/queries/traverses";
 import type { Traverse } from "@/lib/api-client/traverses";
@@ -38,6 +43,10 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
   const { section, system } = found;
   const tol = toleranceFor(project, "section");
   const latest = resource.revisions[0];
+  const round = resource.section.shape === "round";
+  const duct = round
+    ? { shape: "round" as const, diameterMm: resource.section.diameterMm ?? 0 }
+    : { shape: "rectangular" as const, widthMm: resource.section.widthMm ?? 0, heightMm: resource.section.heightMm ?? 0 };
   const deviations = (await listDeviations({ projectId: project.id })).filter((d) => (d.subject === "section" || d.subject === "junction") && d.entityId === section.id);
   return (
     <main className="mx-auto grid max-w-7xl gap-gutter px-gutter py-6">
@@ -76,7 +85,43 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
       {canRecord && <SyncStatusBanner />}
       {canRecord && <Cautions layout="tiles" />}
 
-      <TraverseScreen projectId={project.id} initial={resource} units={units} canRecord={canRecord} tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }} />
+      <TraverseScreen
+        projectId={project.id}
+        initial={resource}
+        units={units}
+        canRecord={canRecord}
+        tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }}
+        plane={resource.layout && <CrossSection duct={duct} layout={resource.layout} title={`Cross-section of ${resource.sectionTag} with the numbered traverse points and ports`} />}
+        insertionDepths={resource.layout && <InsertionDepths layout={resource.layout} units={units} portOffsetMm={resource.portOffsetMm} round={round} />}
+        initialViews={
+          resource.layout &&
+          resource.result &&
+          hasVelocities(resource.result.points) && (
+            <VelocityViews
+              points={resource.result.points}
+              unreadable={resource.unreadable}
+              layout={resource.layout}
+              duct={duct}
+              units={units}
+              sectionTag={resource.sectionTag}
+              lines={resource.lines}
+              round={round}
+            />
+          )
+        }
+        initialResults={
+          resource.result && (
+            <LiveResults
+              result={resource.result}
+              units={units}
+              designFlowM3S={section.designFlowM3S}
+              tolerance={{ minusPct: tol.minusPct, plusPct: tol.plusPct }}
+              source={{ kind: "server", version: resource.version }}
+              headingId={resultsHeadingId(resource.id)}
+            />
+          )
+        }
+      />
 
       <div className="grid gap-gutter lg:grid-cols-2">
         <Card title={`Instruments`}>
@@ -127,7 +172,7 @@ export default async function TraversePage({ params }: { params: Promise<{ proje
       </div>
 
       <Card title={`Photos of ${section.tag}'s test ports and traverse plane`}>
-        <SectionPhotos
+        <SectionPhotosLater
           projectId={project.id}
           sectionId={section.id}
           sectionTag={section.tag}
