@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { cachedRead, getDb } from "../client";
 import { airSystems, ductSections, projectMembers, projects, traverses, users, type MemberRole, type Project, type TraverseStatus } from "../schema";
-import { getUserById, type SessionUser } from "./users";
+import { getUserById, sessionColumns, type SessionUser } from "./users";
 
 export interface ProjectAccess {
   project: Project;
@@ -35,12 +35,7 @@ export async function getUserWithProjectAccess({ userId, projectId }: { userId: 
     const db = await getDb();
     const [row] = await db
       .select({
-        id: users.id,
-        email: users.email,
-        name: users.name,
-        isAdmin: users.isAdmin,
-        unitSystem: users.unitSystem,
-        sessionVersion: users.sessionVersion,
+        ...sessionColumns,
         project: projects,
         role: projectMembers.role,
       })

@@ -13,7 +13,8 @@ export interface SessionUser {
   sessionVersion: number;
 }
 
-const sessionColumns = {
+/** The columns of a SessionUser, for every query that reads one. */
+export const sessionColumns = {
   id: users.id,
   email: users.email,
   name: users.name,
