@@ -102,7 +102,7 @@ for (const viewport of VIEWPORTS) {
       await expect(row.getByRole("cell").nth(3)).toContainText(`${initial.pct} %${initial.within ? "Within" : "Outside"}`);
       await expect(page.getByRole("status").filter({ hasText: `Saved. The server has the initial reading of ${tag}.` })).toBeVisible();
       // The Read button has the focus back, ready for the final reading after adjustment.
-      expect(await screen.focusedName()).toBe(`Read ${tag}`);
+      await expect.poll(() => screen.focusedName()).toBe(`Read ${tag}`);
 
       // Final, after adjusting the damper: 272 L/s, damper marked.
       await page.keyboard.press("Enter");
@@ -189,6 +189,8 @@ for (const viewport of VIEWPORTS) {
       const maxRow = screen.row(tag, "Maximum");
       await expect(maxRow.getByRole("cell").nth(3)).toContainText("90 %Within");
       await expect(maxRow.getByRole("cell").nth(3)).toContainText("Controller ×0.90 · factor → 0.705");
+      // The focus returns to the button that opened the panel (a frame after the row shows); wait for it before moving on.
+      await expect.poll(() => screen.focusedName()).toBe(`Read ${tag} at maximum`);
 
       // Minimum: 99 L/s against 90 L/s design; the controller shows 90 L/s.
       await page.getByRole("button", { name: `Read ${tag} at minimum`, exact: true }).focus();
