@@ -9,12 +9,18 @@ import type { PGlite, Transaction } from "@electric-sql/pglite";
  * there is no cache: `readThrough` on a handle without one simply loads.)
  *
  * How a stale answer is ruled out:
- * - every statement the instance runs is seen here. A SELECT is a read; an INSERT or UPDATE marks its
- *   table written; a DELETE (foreign keys may cascade), a multi-statement `exec`, or anything not
- *   recognised marks every table written;
+ * - every statement the instance runs is seen here. A SELECT is a read; an INSERT marks its table
+ *   written; an UPDATE whose SET list can be read marks only the columns it assigns in its table
+ *   (otherwise the whole table); a DELETE (foreign keys may cascade), a multi-statement `exec`, or
+ *   anything not recognised marks every table written;
  * - while a read is being loaded, the tables its statements name are collected (any known table name
  *   appearing in the SQL counts, so a subquery or a column that happens to share a name only makes the
- *   answer depend on more, never on less);
+ *   answer depend on more, never on less), and so is every word of its SQL. An UPDATE changes no row's
+ *   existence, only the values of the columns it assigns, so it can change an answer only if the
+ *   answer's SQL names one of those columns (in its select list, a condition, a join or an order) or
+ *   takes whole rows (`*`, or a JSON or array aggregate, which may be given a row): anything else
+ *   counts as depending on every column. The schema has no generated columns, no ON UPDATE cascades
+ *   and no triggers that write, which is what makes this hold;
  * - an answer is kept with the write counter as it stood *before* its first statement ran, and is
  *   served only while none of its tables has been written since. A write that lands while the read is
  *   running therefore always invalidates it, committed or not.
@@ -23,9 +29,16 @@ import type { PGlite, Transaction } from "@electric-sql/pglite";
 
 const MAX_ENTRIES = 2_000;
 
+/** What a load read: tables, and the words of its SQL (null: it may depend on any column). */
+interface Footprint {
+  tables: Set<string>;
+  words: Set<string> | null;
+}
+
 interface Entry {
   value: unknown;
   tables: readonly string[];
+  words: ReadonlySet<string> | null;
   /** The write counter before the first statement of the load ran. */
   since: number;
 }
@@ -56,7 +69,53 @@ function stripLeadingComments(text: string): string {
   }
 }
 
-export type StatementEffect = { kind: "read" } | { kind: "none" } | { kind: "write"; table: string } | { kind: "write-all" };
+export type StatementEffect =
+  | { kind: "read" }
+  | { kind: "none" }
+  | { kind: "write"; table: string }
+  | { kind: "update"; table: string; columns: string[] }
+  | { kind: "write-all" };
+
+/** Reads that may take whole rows, so their SQL need not name the columns they depend on. */
+const WHOLE_ROWS = /\*|\b(row_to_json|to_jsonb?|json_agg|jsonb_agg|json_object_agg|jsonb_object_agg|array_agg|row)\s*\(/i;
+const COUNT_STAR = /\bcount\s*\(\s*\*\s*\)/gi;
+const WORD = /[a-z_][a-z0-9_$]*/gi;
+
+/**
+ * The columns an UPDATE's SET list assigns (`set "a" = …, b = …`), or null when it cannot be read
+ * with certainty (a row assignment `(a, b) = …`, quoting it does not expect, and the like).
+ */
+function assignedColumns(afterSet: string): string[] | null {
+  const columns: string[] = [];
+  let depth = 0;
+  let start = 0;
+  let end = afterSet.length;
+  for (let i = 0; i < afterSet.length; i++) {
+    const c = afterSet[i]!;
+    if (c === "'" || c === '"') {
+      const close = afterSet.indexOf(c, i + 1);
+      if (close < 0) return null;
+      i = close;
+    } else if (c === "(") depth += 1;
+    else if (c === ")") depth -= 1;
+    else if (depth === 0 && c === ",") {
+      columns.push(afterSet.slice(start, i));
+      start = i + 1;
+    } else if (depth === 0 && /\s/.test(c) && /^\s+(where|returning|from)\b/i.test(afterSet.slice(i, i + 12))) {
+      end = i;
+      break;
+    }
+  }
+  if (depth !== 0) return null;
+  columns.push(afterSet.slice(start, end));
+  const names: string[] = [];
+  for (const assignment of columns) {
+    const m = /^\s*(?:"([a-z_][a-z0-9_]*)"|([a-z_][a-z0-9_]*))\s*=/i.exec(assignment);
+    if (!m) return null;
+    names.push((m[1] ?? m[2]!).toLowerCase());
+  }
+  return names;
+}
 
 /** What one SQL statement may do to the tables, erring towards "wrote everything". */
 export function statementEffect(sqlText: string): StatementEffect {
@@ -65,17 +124,25 @@ export function statementEffect(sqlText: string): StatementEffect {
   if (NEUTRAL.test(s)) return { kind: "none" };
   const target = TARGET.exec(s);
   // A WITH can hide a data-modifying statement; a semicolon can hide a second one.
-  if (target && !s.includes(";")) return { kind: "write", table: target[2]!.toLowerCase() };
-  return { kind: "write-all" };
+  if (!target || s.includes(";")) return { kind: "write-all" };
+  const table = target[2]!.toLowerCase();
+  if (/^update$/i.test(target[1]!)) {
+    const set = /^\s*"?[a-z0-9_]*"?\s+set\s/i.exec(s.slice(target[0].length));
+    const columns = set ? assignedColumns(s.slice(target[0].length + set[0].length)) : null;
+    if (columns) return { kind: "update", table, columns };
+  }
+  return { kind: "write", table };
 }
 
 export class ReadCache {
   private counter = 0;
   private everythingWrittenAt = 0;
   private readonly writtenAt = new Map<string, number>();
+  /** Per table: when each column was last assigned by an UPDATE, and the latest of those. */
+  private readonly columnsWrittenAt = new Map<string, { latest: number; columns: Map<string, number> }>();
   private readonly entries = new Map<string, Entry>();
   private readonly flights = new Map<string, Flight>();
-  private readonly loading = new AsyncLocalStorage<Set<string>>();
+  private readonly loading = new AsyncLocalStorage<Footprint>();
   private readonly tableWord: RegExp;
   private hits = 0;
   private misses = 0;
@@ -89,14 +156,23 @@ export class ReadCache {
   observe(sqlText: string): boolean {
     const effect = statementEffect(sqlText);
     if (effect.kind === "read") {
-      const tables = this.loading.getStore();
-      if (tables) for (const m of sqlText.matchAll(this.tableWord)) tables.add(m[1]!.toLowerCase());
+      const footprint = this.loading.getStore();
+      if (footprint) {
+        for (const m of sqlText.matchAll(this.tableWord)) footprint.tables.add(m[1]!.toLowerCase());
+        if (footprint.words && WHOLE_ROWS.test(sqlText.replace(COUNT_STAR, "count()"))) footprint.words = null;
+        if (footprint.words) for (const m of sqlText.matchAll(WORD)) footprint.words.add(m[0].toLowerCase());
+      }
       return false;
     }
     if (effect.kind === "none") return false;
     this.counter += 1;
     if (effect.kind === "write") this.writtenAt.set(effect.table, this.counter);
-    else this.everythingWrittenAt = this.counter;
+    else if (effect.kind === "update") {
+      let written = this.columnsWrittenAt.get(effect.table);
+      if (!written) this.columnsWrittenAt.set(effect.table, (written = { latest: 0, columns: new Map() }));
+      written.latest = this.counter;
+      for (const c of effect.columns) written.columns.set(c, this.counter);
+    } else this.everythingWrittenAt = this.counter;
     return true;
   }
 
@@ -106,9 +182,16 @@ export class ReadCache {
     this.everythingWrittenAt = this.counter;
   }
 
-  private fresh(tables: readonly string[], since: number): boolean {
+  private fresh({ tables, words }: Pick<Entry, "tables" | "words">, since: number): boolean {
     if (this.everythingWrittenAt > since) return false;
-    for (const t of tables) if ((this.writtenAt.get(t) ?? 0) > since) return false;
+    for (const t of tables) {
+      if ((this.writtenAt.get(t) ?? 0) > since) return false;
+      const updated = this.columnsWrittenAt.get(t);
+      if (updated && updated.latest > since) {
+        if (!words) return false;
+        for (const [column, at] of updated.columns) if (at > since && words.has(column)) return false;
+      }
+    }
     return true;
   }
 
@@ -116,12 +199,12 @@ export class ReadCache {
   async read<T>(key: string, load: () => Promise<T>): Promise<T> {
     const outer = this.loading.getStore();
     const entry = this.entries.get(key);
-    if (entry && this.fresh(entry.tables, entry.since)) {
+    if (entry && this.fresh(entry, entry.since)) {
       this.hits += 1;
       // Refresh its place in the least-recently-used order.
       this.entries.delete(key);
       this.entries.set(key, entry);
-      if (outer) for (const t of entry.tables) outer.add(t);
+      if (outer) include(outer, entry);
       return entry.value as T;
     }
     this.misses += 1;
@@ -129,10 +212,10 @@ export class ReadCache {
     let flight = this.flights.get(key);
     if (!flight || flight.since !== this.counter) {
       const since = this.counter;
-      const tables = new Set<string>();
-      const promise = this.loading.run(tables, load).then((value) => {
-        const loaded: Entry = { value: deepFreeze(value), tables: [...tables], since };
-        if (this.fresh(loaded.tables, since)) this.remember(key, loaded);
+      const footprint: Footprint = { tables: new Set(), words: new Set() };
+      const promise = this.loading.run(footprint, load).then((value) => {
+        const loaded: Entry = { value: deepFreeze(value), tables: [...footprint.tables], words: footprint.words, since };
+        if (this.fresh(loaded, since)) this.remember(key, loaded);
         return loaded;
       });
       flight = { promise, since };
@@ -143,7 +226,7 @@ export class ReadCache {
       promise.then(settled, settled);
     }
     const loaded = await flight.promise;
-    if (outer) for (const t of loaded.tables) outer.add(t);
+    if (outer) include(outer, loaded);
     return loaded.value as T;
   }
 
@@ -156,6 +239,13 @@ export class ReadCache {
   stats(): ReadCacheStats {
     return { hits: this.hits, misses: this.misses, entries: this.entries.size };
   }
+}
+
+/** A read nested in another load makes the outer answer depend on what the inner one read. */
+function include(outer: Footprint, inner: Pick<Entry, "tables" | "words">): void {
+  for (const t of inner.tables) outer.tables.add(t);
+  if (!inner.words) outer.words = null;
+  else if (outer.words) for (const w of inner.words) outer.words.add(w);
 }
 
 function deepFreeze<T>(value: T): T {

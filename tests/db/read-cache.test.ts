@@ -7,8 +7,21 @@ describe("statementEffect", () => {
     expect(statementEffect(`select "id" from "users" where "id" = $1`)).toEqual({ kind: "read" });
     expect(statementEffect(`  -- note\n/* x */ SELECT 1`)).toEqual({ kind: "read" });
     expect(statementEffect(`insert into "readings" ("id") values ($1) on conflict do nothing`)).toEqual({ kind: "write", table: "readings" });
-    expect(statementEffect(`update "users" set "session_version" = "session_version" + 1`)).toEqual({ kind: "write", table: "users" });
-    expect(statementEffect(`UPDATE public.users SET name = 'x'`)).toEqual({ kind: "write", table: "users" });
+    expect(statementEffect(`update "users" set "session_version" = "session_version" + 1`)).toEqual({ kind: "update", table: "users", columns: ["session_version"] });
+    expect(statementEffect(`UPDATE public.users SET name = 'x'`)).toEqual({ kind: "update", table: "users", columns: ["name"] });
+    // An UPDATE names the columns it assigns, wherever commas and keywords sit inside its values.
+    expect(
+      statementEffect(`update "traverses" set "version" = "traverses"."version" + 1, "updated_at" = $1 where ("traverses"."id" = $2 and "traverses"."version" = $3) returning "id", "status"`),
+    ).toEqual({ kind: "update", table: "traverses", columns: ["version", "updated_at"] });
+    expect(statementEffect(`UPDATE people SET name = 'a, b where c', "note" = (select max(x) from y where z = 1), age = coalesce(age, 0) FROM other WHERE people.id = other.id`)).toEqual({
+      kind: "update",
+      table: "people",
+      columns: ["name", "note", "age"],
+    });
+    // A SET list it cannot read with certainty: the whole table.
+    expect(statementEffect(`update t set (a, b) = (1, 2)`)).toEqual({ kind: "write", table: "t" });
+    expect(statementEffect(`update t set a = 'unterminated`)).toEqual({ kind: "write", table: "t" });
+    expect(statementEffect(`update t set a = (1`)).toEqual({ kind: "write", table: "t" });
     for (const neutral of ["begin", "COMMIT", "rollback", "savepoint sp1", "release savepoint sp1", "set search_path to public"]) {
       expect(statementEffect(neutral)).toEqual({ kind: "none" });
     }
@@ -30,7 +43,7 @@ describe("ReadCache on an embedded database", () => {
   // One database for the file (starting one takes seconds); each test starts from the same rows.
   beforeAll(async () => {
     client = new PGlite("memory://");
-    await client.exec(`create table people (id int primary key, name text); create table pets (id int primary key, owner int references people(id) on delete cascade, name text);`);
+    await client.exec(`create table people (id int primary key, name text, note text); create table pets (id int primary key, owner int references people(id) on delete cascade, name text, note text);`);
     cache = watchPglite(client, ["people", "pets"]);
   });
   beforeEach(async () => {
@@ -108,6 +121,49 @@ describe("ReadCache on an embedded database", () => {
     await outer();
     await client.query(`insert into "people" values (2, 'Bo')`);
     expect((await outer()).names).toEqual(["Ada", "Bo"]);
+  });
+
+  it("keeps an answer through an UPDATE of columns its SQL does not name, and drops it when it names one", async () => {
+    await names();
+    await client.query(`update "people" set "note" = 'visited' where "id" = 1`);
+    expect(await names()).toEqual(["Ada"]);
+    expect(loads).toBe(1);
+    // The column in a condition or a count's filter counts as much as in the select list.
+    const counted = () => cache.read("counted", async () => (await client.query<{ n: number }>(`select count(*)::int as n from "people" where "note" is null`)).rows[0]!.n);
+    expect(await counted()).toBe(0);
+    await client.query(`update "people" set "name" = 'Ada L.'`);
+    expect(await names()).toEqual(["Ada L."]);
+    expect(loads).toBe(2);
+    expect(await counted()).toBe(0); // name is not in its SQL: still the answer from before
+    await client.query(`update "people" set "note" = null`);
+    expect(await counted()).toBe(1);
+  });
+
+  it("counts a read that may take whole rows as depending on every column", async () => {
+    const star = () => cache.read("star", async () => (await client.query<{ note: string | null }>(`select * from "people"`)).rows.map((r) => r.note));
+    const aggregated = () => cache.read("aggregated", async () => (await client.query<{ rows: unknown }>(`select json_agg(p) as rows from "people" p`)).rows[0]!.rows);
+    expect(await star()).toEqual([null]);
+    expect(await aggregated()).toEqual([{ id: 1, name: "Ada", note: null }]);
+    await client.query(`update "people" set "note" = 'visited'`);
+    expect(await star()).toEqual(["visited"]);
+    expect(await aggregated()).toEqual([{ id: 1, name: "Ada", note: "visited" }]);
+  });
+
+  it("passes the columns of a nested read on to the read that contains it", async () => {
+    let outerLoads = 0;
+    const outer = () =>
+      cache.read("outer-columns", async () => {
+        outerLoads += 1;
+        return { names: await names(), pets: (await client.query<{ id: number }>(`select "id" from "pets"`)).rows.length };
+      });
+    await names(); // already remembered when the outer read takes it
+    await outer();
+    await client.query(`update "people" set "note" = 'visited'`); // named by neither
+    await outer();
+    expect([loads, outerLoads]).toEqual([1, 1]);
+    await client.query(`update "people" set "name" = 'Ada L.'`); // named only by the inner read
+    expect((await outer()).names).toEqual(["Ada L."]);
+    expect([loads, outerLoads]).toEqual([2, 2]);
   });
 
   it("keeps a bounded number of answers", async () => {

@@ -2,12 +2,13 @@
  * `npm run load`: the production build on loopback, driven by autocannon with signed-in users,
  * a mix of reads and saves. Bounded in time; sends traffic to 127.0.0.1 only.
  *
- *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write readings|preference] [--postgres | --database postgres-url] [--json out.json]
+ *   npm run load -- [--duration 30] [--connections 50] [--writers 5] [--write readings|preference] [--postgres | --database postgres-url | --url http://127.0.0.1:port] [--json out.json]
  *
  * Prints requests/s, p50/p95/p99 latency and errors for reads and writes separately, and exits 1
  * when any request failed. The server runs on a fresh embedded database in a temporary directory
  * (or on a throwaway PostgreSQL cluster with --postgres, or on --database, a PostgreSQL database it
- * may seed), and is stopped and removed afterwards.
+ * may seed), and is stopped and removed afterwards. With --url it drives a server already running on
+ * loopback with the demo data (one started under a profiler, say) and leaves it running.
  */
 import fs from "node:fs";
 import os from "node:os";
@@ -30,6 +31,8 @@ let databaseUrl = option("database", "");
 /** Also write the figures as JSON to this file (npm run bench reads them). */
 const jsonOut = option("json", "");
 const throwawayPostgres = process.argv.includes("--postgres");
+const runningUrl = option("url", "");
+if (runningUrl && !/^http:\/\/(127\.0\.0\.1|localhost|\[::1\]):\d+$/.test(runningUrl)) throw new Error("--url must be a loopback address with its port, e.g. http://127.0.0.1:3999.");
 if (!(duration > 0 && duration <= 600)) throw new Error("--duration is in seconds, 1 to 600.");
 if (!(writers >= 0 && writers < connections && connections <= 500)) throw new Error("--connections 1–500, --writers fewer than connections.");
 if (!WRITE_MIXES[writeMix]) throw new Error(`--write must be one of: ${Object.keys(WRITE_MIXES).join(", ")}.`);
@@ -83,7 +86,9 @@ async function main() {
     cluster = await startPostgres();
     databaseUrl = cluster.url;
   }
-  const app = await startAppServer({ databaseUrl: databaseUrl || undefined, timeLimitS: duration + 300, label: "load" });
+  const app = runningUrl
+    ? { base: runningUrl, serverPid: () => null, stop: async () => undefined }
+    : await startAppServer({ databaseUrl: databaseUrl || undefined, timeLimitS: duration + 300, label: "load" });
   const base = app.base;
   const stop = async () => {
     await app.stop();
