@@ -1,6 +1,6 @@
 import "server-only";
-import { and, asc, desc, eq, sql } from "drizzle-orm";
-import { getDb } from "../client";
+import { and, asc, desc, eq, getTableColumns, inArray, sql } from "drizzle-orm";
+import { cachedRead, getDb } from "../client";
 import { airSystems, ductSections, readings, traverses, users, type AirSystem, type DuctSection, type Reading, type Traverse } from "../schema";
 
 export interface TraverseInProject {
@@ -21,6 +21,42 @@ export async function getTraverseInProject({ projectId, traverseId }: { projectI
     .leftJoin(users, eq(users.id, traverses.takenBy))
     .where(and(eq(traverses.id, traverseId), eq(airSystems.projectId, projectId)));
   return row ?? null;
+}
+
+/** A traverse's columns but the two every save changes: its version and its update time. */
+export type TraverseSettings = Omit<Traverse, "version" | "updatedAt">;
+
+export interface TraverseToEdit extends Omit<TraverseInProject, "traverse"> {
+  traverse: TraverseSettings;
+}
+
+function settingsOnly(): Omit<ReturnType<typeof getTableColumns<typeof traverses>>, "version" | "updatedAt"> {
+  const { version, updatedAt, ...columns } = getTableColumns(traverses);
+  void version;
+  void updatedAt;
+  return columns;
+}
+const SETTINGS_COLUMNS = settingsOnly();
+
+/**
+ * getTraverseInProject without the traverse's version and update time, remembered between calls: the
+ * read cache keeps it while nothing it selects is written, and a readings save writes only those two
+ * columns (and the settings it changes). A save judges by it and learns the version from its own
+ * guarded UPDATE, so a tablet's stream of saves does not read the traverse, section and system again
+ * each time.
+ */
+export async function getTraverseToEdit({ projectId, traverseId }: { projectId: string; traverseId: string }): Promise<TraverseToEdit | null> {
+  return cachedRead(`traverse-to-edit:${projectId}:${traverseId}`, async () => {
+    const db = await getDb();
+    const [row] = await db
+      .select({ traverse: SETTINGS_COLUMNS, section: ductSections, system: airSystems, takenByName: users.name })
+      .from(traverses)
+      .innerJoin(ductSections, eq(ductSections.id, traverses.sectionId))
+      .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
+      .leftJoin(users, eq(users.id, traverses.takenBy))
+      .where(and(eq(traverses.id, traverseId), eq(airSystems.projectId, projectId)));
+    return row ?? null;
+  });
 }
 
 /** A traverse by id in any project (to recognise a client id already used). */
@@ -108,12 +144,17 @@ export interface ReadingChange {
   after: { value: number | null; unreadable: boolean } | null;
 }
 
+/** The statuses in which a traverse's readings and settings may change. */
+export const EDITABLE_STATUSES: readonly Traverse["status"][] = ["draft", "returned"];
+
 /**
- * Saves a traverse's readings (and any other columns given) if its version is still `version`:
- * the version goes up by one, points whose value changed get a new row time, points no longer in the
- * grid are removed, unchanged ones keep their time. One transaction: all of it or nothing. Returns
- * "stale" without changing anything when someone else saved first.
+ * Saves a traverse's readings (and any other columns given) if its version is still `version` and it
+ * is still open for readings (a draft or returned): the version goes up by one, points whose value
+ * changed get a new row time, points no longer in the grid are removed, unchanged ones keep their
+ * time. One transaction: all of it or nothing. Returns "stale" without changing anything when someone
+ * else saved first or the traverse was submitted meanwhile.
  */
+
 export async function saveTraverseReadings({
   traverseId,
   version,
@@ -131,7 +172,8 @@ export async function saveTraverseReadings({
     const [updated] = await tx
       .update(traverses)
       .set({ ...values, version: sql`${traverses.version} + 1`, updatedAt: new Date() })
-      .where(and(eq(traverses.id, traverseId), eq(traverses.version, version)))
+      // Only a traverse still open for readings: one submitted since the caller looked is not changed.
+      .where(and(eq(traverses.id, traverseId), eq(traverses.version, version), inArray(traverses.status, EDITABLE_STATUSES)))
       .returning();
     if (!updated) return { status: "stale" as const };
     const changes: ReadingChange[] = [];

@@ -6,14 +6,18 @@ import { getConditions } from "@/db/queries/conditions";
 import { getSectionInProject } from "@/db/queries/design";
 import { isUuid } from "@/db/queries/projects";
 import {
+  EDITABLE_STATUSES,
   getTraverseById,
   getTraverseInProject,
+  getTraverseToEdit,
   insertTraverseRevision,
   listReadingsOfTraverse,
   listRevisionsOfSection,
   saveTraverseReadings,
   type PointValue,
   type TraverseInProject,
+  type TraverseSettings,
+  type TraverseToEdit,
 } from "@/db/queries/traverses";
 import { instruments as instrumentsTable, type Instrument, type InstrumentKind, type Project, type Reading, type Traverse } from "@/db/schema";
 import { airConditionErrors } from "@/lib/airflow/air";
@@ -39,7 +43,6 @@ function fail(status: number, message: string, fields?: Record<string, string>, 
 }
 
 export const NO_TRAVERSE = "No such traverse in this project.";
-const EDITABLE: readonly Traverse["status"][] = ["draft", "returned"];
 
 type Air = NonNullable<TraverseCreate["air"]>;
 type InstrumentChoice = NonNullable<TraverseCreate["instrument"]>;
@@ -107,7 +110,7 @@ async function instrumentsById(ids: readonly (string | null | undefined)[]): Pro
  * engine's inputs copied from it (accuracies, probe coefficient and head), the legacy name columns.
  * `current` fills the slots the choice leaves out (a PATCH that changes one instrument).
  */
-async function instrumentColumns(choice: InstrumentChoice, readingsKind: Traverse["readingsKind"], current?: Traverse): Promise<{ fields: Record<string, string> } | { values: Partial<Traverse> }> {
+async function instrumentColumns(choice: InstrumentChoice, readingsKind: Traverse["readingsKind"], current?: TraverseSettings): Promise<{ fields: Record<string, string> } | { values: Partial<Traverse> }> {
   const chosen: Record<Slot, string | null> = {
     readingInstrumentId: choice.readingInstrumentId !== undefined ? choice.readingInstrumentId : (current?.instrumentId ?? null),
     probeInstrumentId: choice.probeInstrumentId !== undefined ? choice.probeInstrumentId : (current?.probeInstrumentId ?? null),
@@ -382,11 +385,16 @@ export async function createTraverse(user: { id: string }, project: Project, bod
 }
 
 /** The traverse, or the refusal when it does not exist here or may no longer change. */
-async function editable(project: Project, traverseId: string): Promise<{ found: TraverseInProject } | { outcome: Outcome }> {
+/** The traverse if its readings may change, or the answer why not. `read` is how it is looked up. */
+async function editable<T extends TraverseToEdit>(
+  project: Project,
+  traverseId: string,
+  read: (q: { projectId: string; traverseId: string }) => Promise<T | null>,
+): Promise<{ found: T } | { outcome: Outcome }> {
   if (!isUuid(traverseId)) return { outcome: fail(404, NO_TRAVERSE) };
-  const found = await getTraverseInProject({ projectId: project.id, traverseId });
+  const found = await read({ projectId: project.id, traverseId });
   if (!found) return { outcome: fail(404, NO_TRAVERSE) };
-  if (!EDITABLE.includes(found.traverse.status)) {
+  if (!EDITABLE_STATUSES.includes(found.traverse.status)) {
     const word = found.traverse.status === "approved" ? "approved" : "submitted for review";
     return {
       outcome: fail(409, `Traverse ${found.section.tag} revision ${found.traverse.revision} was ${word}; its readings are locked. Start a re-traverse of ${found.section.tag} to take new readings.`, undefined, { status: found.traverse.status }),
@@ -400,8 +408,14 @@ async function stale(project: Project, traverseId: string): Promise<Outcome> {
   return fail(409, `Someone saved this traverse first (it is now at version ${current?.version ?? "?"}); nothing was changed. Compare both versions and choose which to keep.`, undefined, { traverse: current });
 }
 
+/** A guarded save changed nothing: the traverse was submitted meanwhile (409 locked), or saved by someone else first. */
+async function notSaved(project: Project, traverseId: string): Promise<Outcome> {
+  const again = await editable(project, traverseId, getTraverseInProject);
+  return "outcome" in again ? again.outcome : stale(project, traverseId);
+}
+
 /** Column changes shared by PUT readings and PATCH: air, instruments, conditions. */
-async function settingsColumns(project: Project, found: TraverseInProject, body: { air?: Air; instrument?: InstrumentChoice; conditionsId?: string | null }) {
+async function settingsColumns(project: Project, found: TraverseToEdit, body: { air?: Air; instrument?: InstrumentChoice; conditionsId?: string | null }) {
   const fields: Record<string, string> = {};
   const values: Partial<Traverse> = {};
   if (body.air) {
@@ -421,7 +435,7 @@ async function settingsColumns(project: Project, found: TraverseInProject, body:
   return { fields, values };
 }
 
-function changedColumns(before: Traverse, values: Partial<Traverse>) {
+function changedColumns(before: TraverseSettings, values: Partial<Traverse>) {
   const b: Record<string, unknown> = {};
   const a: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(values)) {
@@ -435,23 +449,28 @@ function changedColumns(before: Traverse, values: Partial<Traverse>) {
 }
 
 export async function saveReadings(user: { id: string }, project: Project, traverseId: string, body: ReadingsSave): Promise<Outcome> {
-  const got = await editable(project, traverseId);
+  // The traverse as last read (without its version, which every save changes): the save's own guarded
+  // UPDATE checks the version and the status against the database.
+  const got = await editable(project, traverseId, getTraverseToEdit);
   if ("outcome" in got) return got.outcome;
   const { found } = got;
   const t = found.traverse;
-  // A stale version is answered before anything else is judged: the device needs the current state.
-  if (body.version !== t.version) return stale(project, traverseId);
   const points = pointsOf(t, body.readings, body.unreadable ?? []);
   const settings = await settingsColumns(project, found, body);
   const fields = { ...("fields" in points ? points.fields : {}), ...settings.fields };
-  if (Object.keys(fields).length > 0) return fail(400, summarize(fields, "readings save"), fields);
+  if (Object.keys(fields).length > 0) {
+    // A stale version is answered before anything else is judged: the device needs the current state.
+    const current = await getTraverseInProject({ projectId: project.id, traverseId });
+    if (current && current.traverse.version !== body.version) return stale(project, traverseId);
+    return fail(400, summarize(fields, "readings save"), fields);
+  }
   const saved = await saveTraverseReadings({
     traverseId,
     version: body.version,
     points: "points" in points ? points.points : [],
     values: settings.values,
   });
-  if (saved.status === "stale") return stale(project, traverseId);
+  if (saved.status === "stale") return notSaved(project, traverseId);
   const columns = changedColumns(t, settings.values);
   if (saved.changes.length > 0 || Object.keys(columns.after).length > 0) {
     await recordAudit({
@@ -476,7 +495,7 @@ export async function saveReadings(user: { id: string }, project: Project, trave
 }
 
 export async function patchTraverse(user: { id: string }, project: Project, traverseId: string, body: TraversePatch): Promise<Outcome> {
-  const got = await editable(project, traverseId);
+  const got = await editable(project, traverseId, getTraverseInProject);
   if ("outcome" in got) return got.outcome;
   const { found } = got;
   if (body.version !== found.traverse.version) return stale(project, traverseId);
@@ -486,7 +505,7 @@ export async function patchTraverse(user: { id: string }, project: Project, trav
   if (body.portOffsetMm !== undefined) values.portOffsetMm = body.portOffsetMm ?? 0;
   if (body.notes !== undefined) values.notes = body.notes;
   const saved = await saveTraverseReadings({ traverseId, version: body.version, points: null, values });
-  if (saved.status === "stale") return stale(project, traverseId);
+  if (saved.status === "stale") return notSaved(project, traverseId);
   const columns = changedColumns(found.traverse, values);
   if (Object.keys(columns.after).length > 0)
     await recordAudit({ userId: user.id, projectId: project.id, action: "traverse.changed", entityType: "traverse", entityId: traverseId, detail: { sectionTag: found.section.tag, revision: found.traverse.revision, ...columns } });

@@ -109,8 +109,15 @@ export function missingAir(air: TraverseAir): string | null {
 
 /** A snake_case key as the API's camelCase: mean_velocity_m_s → meanVelocityMS, density_kg_m3 → densityKgM3. */
 export function camelKey(key: string): string {
-  return key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase());
+  let camel = camelCase.get(key);
+  if (camel === undefined) {
+    camel = key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase());
+    // The engine's keys are a small fixed set; the bound only guards against being handed others.
+    if (camelCase.size < 2_000) camelCase.set(key, camel);
+  }
+  return camel;
 }
+const camelCase = new Map<string, string>();
 
 /** Every key of a JSON value in camelCase, values untouched. */
 export function camelKeys(value: unknown): unknown {

@@ -11,6 +11,21 @@ import { callRoute } from "../support/route-call";
 
 const session = vi.hoisted(() => ({ userId: undefined as string | undefined }));
 vi.mock("@/lib/auth/session", async (original) => (await import("../support/session-mock")).mockSession(await original(), session));
+// Lets a test act between a save's look at the traverse and its write, as a second device might.
+const race = vi.hoisted(() => ({ afterLook: null as null | (() => Promise<unknown>) }));
+vi.mock("@/db/queries/traverses", async (original) => {
+  const mod = await original<typeof import("@/db/queries/traverses")>();
+  return {
+    ...mod,
+    getTraverseToEdit: async (q: Parameters<typeof mod.getTraverseToEdit>[0]) => {
+      const found = await mod.getTraverseToEdit(q);
+      const act = race.afterLook;
+      race.afterLook = null;
+      if (act) await act();
+      return found;
+    },
+  };
+});
 
 const collection = await import("@/app/api/v1/projects/[projectId]/traverses/route");
 const one = await import("@/app/api/v1/projects/[projectId]/traverses/[traverseId]/route");
@@ -244,6 +259,35 @@ describe("PUT …/traverses/{traverseId}/readings", () => {
     const after = (await get(traverseId)).body.traverse;
     expect(after.readings).toEqual(before.readings);
     expect(after.version).toBe(before.version);
+    // Stale and malformed at once: the device hears first that it is behind.
+    const both = await put(traverseId, { version: 1, readings: [X1_GRID[0]] });
+    expect(both.status).toBe(409);
+    expect(both.body.traverse.version).toBe(before.version);
+  });
+
+  it("answers 409 and changes nothing when another device saves or submits between a save's look and its write", async () => {
+    as("tech@example.test");
+    const { body } = await start({ sectionId: sections.X1, method: "log-linear", air, instrument: instrument(), conditionsId: efConditions });
+    const id = body.traverse.id as string;
+    const first = await put(id, { version: 1, readings: X1_GRID });
+    expect(first.status).toBe(200);
+    const db = await getDb();
+    const bumped = X1_GRID.map((row) => row.map((v) => v + 0.5));
+
+    race.afterLook = () => put(id, { version: 2, readings: bumped }); // the other device saves first
+    const lost = await put(id, { version: 2, readings: X1_GRID.map((row) => row.map((v) => v + 1)) });
+    expect(lost.status).toBe(409);
+    expect(lost.body.error.message).toContain("Someone saved this traverse first");
+    expect(lost.body.traverse.version).toBe(3);
+    expect(lost.body.traverse.readings).toEqual(bumped);
+
+    race.afterLook = () => db.update(s.traverses).set({ status: "submitted" }).where(eq(s.traverses.id, id)); // submitted meanwhile
+    const locked = await put(id, { version: 3, readings: X1_GRID });
+    expect(locked.status).toBe(409);
+    expect(locked.body.error.message).toContain("Start a re-traverse of X1");
+    const [row] = await db.select().from(s.traverses).where(eq(s.traverses.id, id));
+    expect([row!.status, row!.version]).toEqual(["submitted", 3]);
+    expect((await get(id)).body.traverse.readings).toEqual(bumped);
   });
 
   it("answers a grid of the wrong shape with 400 naming readings.L.P, and keeps what was saved", async () => {
