@@ -10,6 +10,7 @@ import { useId, useMemo, useState } from "react";
 import { SyncStatus } from "@/components/offline/sync-status";
 import { ChoiceGroup } from "@/components/ui/choice-group";
 import { buttonClasses } from "@/components/ui/button";
+import { QuantityField } from "@/components/ui/quantity-field";
 import { recordConditionsOffline, type ConditionsBody } from "@/lib/api-client/field";
 import { BOX_LABELS, conditionsWarnings, FILTER_LABELS, type BoxOverride, type FilterState } from "@/lib/airflow/conditions";
 import { newId } from "@/lib/offline/ids";
@@ -113,36 +114,8 @@ export function ConditionsForm({
   const numberField = (name: keyof FormValues, apiField: string, label: string, unit: string, hint?: string, autoFocus = false) => {
     const id = `${formId}-${name}`;
     const error = errors[apiField];
-    return (
-      <div>
-        <label htmlFor={id} className="mb-1 block font-semibold">
-          {label} <span className="font-normal text-ink-soft">({unit})</span>
-        </label>
-        <input
-          id={id}
-          type="text"
-          inputMode="decimal"
-          autoComplete="off"
-          value={String(v[name])}
-          // Opened by a tap or Enter: the first field takes the cursor at once.
-          autoFocus={autoFocus}
-          onChange={(e) => set(name, e.target.value as never)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={[hint ? `${id}-hint` : "", error ? `${id}-error` : ""].filter(Boolean).join(" ") || undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-xl"
-        />
-        {hint && (
-          <p id={`${id}-hint`} className="mt-1 text-sm text-ink-soft">
-            {hint}
-          </p>
-        )}
-        {error && (
-          <p id={`${id}-error`} className="mt-1 text-sm font-semibold text-fault">
-            {error}
-          </p>
-        )}
-      </div>
-    );
+    // Opened by a tap or Enter: the first field takes the cursor at once.
+    return <QuantityField id={id} label={label} unit={unit} value={String(v[name])} onValue={(text) => set(name, text as never)} hint={hint} error={error} autoFocus={autoFocus} />;
   };
 
   const speedFields = [

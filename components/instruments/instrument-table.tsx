@@ -6,16 +6,8 @@
  */
 import Link from "next/link";
 import { useMemo, useState } from "react";
-import {
-  createColumnHelper,
-  createSortedRowModel,
-  rowSortingFeature,
-  sortFn_alphanumeric,
-  sortFn_basic,
-  tableFeatures,
-  useTable,
-  type SortingState,
-} from "@tanstack/react-table";
+import { createColumnHelper, useTable, type SortingState } from "@tanstack/react-table";
+import { SortableHead, SORTING_FEATURES as features } from "@/components/ui/sortable-head";
 import type { InstrumentKind } from "@/db/schema";
 import { CalibrationStatus } from "./calibration-status";
 import type { Instrument } from "@/lib/api-client/field";
@@ -24,11 +16,6 @@ import { formatCalendarDate } from "@/lib/instruments/usability";
 import { formatAccuracy, formatRange } from "@/lib/instruments/units";
 import type { UnitSystem } from "@/lib/units";
 
-const features = tableFeatures({
-  rowSortingFeature,
-  sortedRowModel: createSortedRowModel(),
-  sortFns: { alphanumeric: sortFn_alphanumeric, basic: sortFn_basic },
-});
 const helper = createColumnHelper<typeof features, Instrument>();
 
 /** Most urgent first when sorted by status: past due, no date, due soon, fine, retired. */
@@ -135,28 +122,7 @@ export function InstrumentTable({ instruments, units, canEdit }: { instruments: 
       <div className="overflow-x-auto">
         <table className="w-full text-left">
           <caption className="sr-only">Instrument register, sorted by {sorting[0]?.id ?? "status"}</caption>
-          <thead className="border-b-2 border-line text-sm text-ink-muted">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  const cls = `py-2 pr-3 ${hidden.has(header.column.id) ? "hidden xl:table-cell" : ""}`;
-                  return (
-                    <th key={header.id} className={cls} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined} scope="col">
-                      {header.column.getCanSort() ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 font-semibold">
-                          <table.FlexRender header={header} />
-                          <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} cellClass={(id) => (hidden.has(id) ? "hidden xl:table-cell" : "")} />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className={`border-b border-line align-top ${row.original.retiredAt ? "text-ink-muted" : ""}`}>

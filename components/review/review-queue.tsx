@@ -9,14 +9,14 @@
 import Link from "next/link";
 import { Fragment, useMemo, useState } from "react";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { createColumnHelper, createSortedRowModel, rowSortingFeature, sortFn_alphanumeric, sortFn_basic, tableFeatures, useTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, useTable, type SortingState } from "@tanstack/react-table";
+import { SortableHead, SORTING_FEATURES as features } from "@/components/ui/sortable-head";
 import { StatusBadge, Verdict } from "@/components/ui/status";
 import { reviewApi, reviewKeys, type QueueItem, type QueueJson } from "@/lib/api-client/review";
 import { summarizeConditions } from "@/lib/airflow/conditions";
 import { formatQuantity, type UnitSystem } from "@/lib/units";
 import { DecisionForm } from "./decision-form";
 
-const features = tableFeatures({ rowSortingFeature, sortedRowModel: createSortedRowModel(), sortFns: { alphanumeric: sortFn_alphanumeric, basic: sortFn_basic } });
 const helper = createColumnHelper<typeof features, QueueItem>();
 const STATUS_ORDER = { submitted: 0, returned: 1, approved: 2, draft: 3 } as const;
 const PLANE = { good: "Good plane", marginal: "Marginal plane", poor: "Poor plane" } as const;
@@ -179,27 +179,7 @@ export function ReviewQueue({ projectId, initial, units, canDecide }: { projectI
       <div className="overflow-x-auto">
         <table className="w-full text-left">
           <caption className="sr-only">Review queue, sorted by {sorting[0]?.id ?? "status"}</caption>
-          <thead className="border-b-2 border-line text-sm text-ink-muted">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th key={header.id} scope="col" className={`py-2 pr-3 ${NARROW_HIDDEN.has(header.column.id) ? "hidden lg:table-cell" : ""}`} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
-                      {header.column.getCanSort() ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 text-left font-semibold">
-                          <table.FlexRender header={header} />
-                          <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} cellClass={(id) => (NARROW_HIDDEN.has(id) ? "hidden lg:table-cell" : "")} buttonClass="text-left" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <Fragment key={row.id}>

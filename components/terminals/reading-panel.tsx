@@ -12,6 +12,7 @@ import type { PickedConditions } from "@/components/conditions/conditions-picker
 import { InstrumentPicker } from "@/components/instruments/instrument-picker";
 import { buttonClasses } from "@/components/ui/button";
 import { ChoiceGroup } from "@/components/ui/choice-group";
+import { QuantityField } from "@/components/ui/quantity-field";
 import { useInstruments } from "@/lib/api-client/field";
 import { recordTerminalReadingOffline, type TerminalReadingBody } from "@/lib/api-client/terminals";
 import { summarizeConditions } from "@/lib/airflow/conditions";
@@ -156,35 +157,19 @@ export function ReadingPanel(props: ReadingPanelProps) {
     const id = `${formId}-${name}`;
     const error = errors[name];
     return (
-      <div key={name}>
-        <label htmlFor={id} className="mb-1 block font-semibold">
-          {label} {unitText && <span className="font-normal text-ink-soft">({unitText})</span>}
-        </label>
-        <input
-          id={id}
-          type="text"
-          inputMode="decimal"
-          autoComplete="off"
-          enterKeyHint="next"
-          value={value}
-          autoFocus={opts.autoFocus}
-          placeholder={opts.placeholder}
-          onChange={(e) => onChange(e.target.value)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={[opts.hint ? `${id}-hint` : "", error ? `${id}-error` : ""].filter(Boolean).join(" ") || undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-xl"
-        />
-        {opts.hint && (
-          <p id={`${id}-hint`} className="mt-1 text-sm text-ink-soft">
-            {opts.hint}
-          </p>
-        )}
-        {error && (
-          <p id={`${id}-error`} className="mt-1 text-sm font-semibold text-fault">
-            {error}
-          </p>
-        )}
-      </div>
+      <QuantityField
+        key={name}
+        id={id}
+        label={label}
+        unit={unitText}
+        value={value}
+        onValue={onChange}
+        hint={opts.hint}
+        error={error}
+        enterKeyHint="next"
+        autoFocus={opts.autoFocus}
+        placeholder={opts.placeholder}
+      />
     );
   };
 

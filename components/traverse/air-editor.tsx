@@ -7,6 +7,7 @@
  */
 import { useId, useState } from "react";
 import { ChoiceGroup } from "@/components/ui/choice-group";
+import { QuantityField } from "@/components/ui/quantity-field";
 import type { DraftAir } from "@/lib/api-client/traverses";
 import { barometricPressureFromAltitudePa } from "@/lib/airflow/air";
 import { displayUnit, formatQuantity, fromDisplay, toDisplay, type Quantity, type UnitSystem } from "@/lib/units";
@@ -68,34 +69,7 @@ export function AirEditor({ air, units, altitudeM, onChange }: { air: DraftAir |
   const field = (name: keyof Omit<Texts, "humidity">, apiField: string, label: string, unit: string, hint?: string) => {
     const fid = `${id}-${name}`;
     const error = errors[apiField];
-    return (
-      <div>
-        <label htmlFor={fid} className="mb-1 block font-semibold">
-          {label} <span className="font-normal text-ink-soft">({unit})</span>
-        </label>
-        <input
-          id={fid}
-          type="text"
-          inputMode="decimal"
-          autoComplete="off"
-          value={t[name]}
-          onChange={(e) => update({ [name]: e.target.value })}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={[hint ? `${fid}-hint` : "", error ? `${fid}-error` : ""].filter(Boolean).join(" ") || undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-xl"
-        />
-        {hint && (
-          <p id={`${fid}-hint`} className="mt-1 text-sm text-ink-soft">
-            {hint}
-          </p>
-        )}
-        {error && (
-          <p id={`${fid}-error`} className="mt-1 text-sm font-semibold text-fault">
-            {error}
-          </p>
-        )}
-      </div>
-    );
+    return <QuantityField id={fid} label={label} unit={unit} value={t[name]} onValue={(text) => update({ [name]: text })} hint={hint} error={error} />;
   };
 
   return (

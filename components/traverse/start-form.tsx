@@ -14,6 +14,7 @@ import type { ConditionsSystem } from "@/components/conditions/conditions-form";
 import { InstrumentPicker } from "@/components/instruments/instrument-picker";
 import { buttonClasses } from "@/components/ui/button";
 import { ChoiceGroup } from "@/components/ui/choice-group";
+import { QuantityField } from "@/components/ui/quantity-field";
 import { ApiError } from "@/lib/api-client";
 import { useFieldKit, type Conditions } from "@/lib/api-client/field";
 import { traverseApi } from "@/lib/api-client/traverses";
@@ -242,34 +243,7 @@ export function StartTraverseForm({
   const field = (name: keyof Values, apiField: string, label: string, unit: string, hint?: string) => {
     const id = `${formId}-${String(name)}`;
     const error = errors[apiField];
-    return (
-      <div>
-        <label htmlFor={id} className="mb-1 block font-semibold">
-          {label} <span className="font-normal text-ink-soft">({unit})</span>
-        </label>
-        <input
-          id={id}
-          type="text"
-          inputMode="decimal"
-          autoComplete="off"
-          value={String(v[name] ?? "")}
-          onChange={(e) => set(name, e.target.value as never)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={[hint ? `${id}-hint` : "", error ? `${id}-error` : ""].filter(Boolean).join(" ") || undefined}
-          className="min-h-touch w-full rounded-card border-2 border-line-strong bg-paper-raised px-3 text-xl"
-        />
-        {hint && (
-          <p id={`${id}-hint`} className="mt-1 text-sm text-ink-soft">
-            {hint}
-          </p>
-        )}
-        {error && (
-          <p id={`${id}-error`} className="mt-1 text-sm font-semibold text-fault">
-            {error}
-          </p>
-        )}
-      </div>
-    );
+    return <QuantityField id={id} label={label} unit={unit} value={String(v[name] ?? "")} onValue={(text) => set(name, text as never)} hint={hint} error={error} />;
   };
 
   return (

@@ -10,19 +10,6 @@ export interface TraverseInProject {
   takenByName: string | null;
 }
 
-/** A traverse of this project with its section and system, or null: another project's traverse answers like an unknown one. */
-export async function getTraverseInProject({ projectId, traverseId }: { projectId: string; traverseId: string }): Promise<TraverseInProject | null> {
-  const db = await getDb();
-  const [row] = await db
-    .select({ traverse: traverses, section: ductSections, system: airSystems, takenByName: users.name })
-    .from(traverses)
-    .innerJoin(ductSections, eq(ductSections.id, traverses.sectionId))
-    .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
-    .leftJoin(users, eq(users.id, traverses.takenBy))
-    .where(and(eq(traverses.id, traverseId), eq(airSystems.projectId, projectId)));
-  return row ?? null;
-}
-
 /** A traverse's columns but the two every save changes: its version and its update time. */
 export type TraverseSettings = Omit<Traverse, "version" | "updatedAt">;
 
@@ -38,6 +25,24 @@ function settingsOnly(): Omit<ReturnType<typeof getTableColumns<typeof traverses
 }
 const SETTINGS_COLUMNS = settingsOnly();
 
+/** The traverse (these of its columns) with its section, system and who took it, if it is in the project. */
+async function traverseWithPlace<C extends typeof traverses | typeof SETTINGS_COLUMNS>(columns: C, { projectId, traverseId }: { projectId: string; traverseId: string }) {
+  const db = await getDb();
+  const [row] = await db
+    .select({ traverse: columns, section: ductSections, system: airSystems, takenByName: users.name })
+    .from(traverses)
+    .innerJoin(ductSections, eq(ductSections.id, traverses.sectionId))
+    .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
+    .leftJoin(users, eq(users.id, traverses.takenBy))
+    .where(and(eq(traverses.id, traverseId), eq(airSystems.projectId, projectId)));
+  return row ?? null;
+}
+
+/** A traverse of this project with its section and system, or null: another project's traverse answers like an unknown one. */
+export async function getTraverseInProject(q: { projectId: string; traverseId: string }): Promise<TraverseInProject | null> {
+  return traverseWithPlace(traverses, q);
+}
+
 /**
  * getTraverseInProject without the traverse's version and update time, remembered between calls: the
  * read cache keeps it while nothing it selects is written, and a readings save writes only those two
@@ -45,18 +50,8 @@ const SETTINGS_COLUMNS = settingsOnly();
  * guarded UPDATE, so a tablet's stream of saves does not read the traverse, section and system again
  * each time.
  */
-export async function getTraverseToEdit({ projectId, traverseId }: { projectId: string; traverseId: string }): Promise<TraverseToEdit | null> {
-  return cachedRead(`traverse-to-edit:${projectId}:${traverseId}`, async () => {
-    const db = await getDb();
-    const [row] = await db
-      .select({ traverse: SETTINGS_COLUMNS, section: ductSections, system: airSystems, takenByName: users.name })
-      .from(traverses)
-      .innerJoin(ductSections, eq(ductSections.id, traverses.sectionId))
-      .innerJoin(airSystems, eq(airSystems.id, ductSections.systemId))
-      .leftJoin(users, eq(users.id, traverses.takenBy))
-      .where(and(eq(traverses.id, traverseId), eq(airSystems.projectId, projectId)));
-    return row ?? null;
-  });
+export async function getTraverseToEdit(q: { projectId: string; traverseId: string }): Promise<TraverseToEdit | null> {
+  return cachedRead(`traverse-to-edit:${q.projectId}:${q.traverseId}`, () => traverseWithPlace(SETTINGS_COLUMNS, q));
 }
 
 /** A traverse by id in any project (to recognise a client id already used). */

@@ -17,7 +17,7 @@ import { and, eq, inArray } from "drizzle-orm";
 import { getDb } from "../client";
 import * as s from "../schema";
 import { engineAccuracy } from "@/lib/instruments/accuracy";
-import { computeReadingFlow, type ReadingValues } from "@/lib/terminals/reading";
+import { computeReadingFlow, readingColumns, type ReadingValues } from "@/lib/terminals/reading";
 
 const LIBRARY_SITE = "Wrenfield Community Library";
 
@@ -187,19 +187,7 @@ async function approveExhaustSystem(projectId: string, technicianId: string, rev
       rows.push({
         terminalId: terminal.id,
         setId: set.id,
-        phase: values.phase,
-        method: values.method,
-        setpoint: values.setpoint,
-        hoodFlowM3S: values.hoodFlowM3S,
-        hoodCorrectionFactor: values.hoodCorrectionFactor,
-        hoodDensityCorrected: values.hoodDensityCorrected,
-        hoodBackPressureCompensated: values.hoodBackPressureCompensated,
-        dryBulbC: values.dryBulbC,
-        relativeHumidityPct: values.relativeHumidityPct,
-        densityKgM3: flow.densityKgM3,
-        flowM3S: flow.flowM3S,
-        standardFlowM3S: flow.standardFlowM3S,
-        damperMarked: values.damperMarked,
+        ...readingColumns(values, flow),
         conditionsId: conditions?.id ?? null,
         instrumentId: hood?.id ?? null,
         airInstrumentId: air?.id ?? null,

@@ -1,5 +1,5 @@
 import { and, desc, eq, inArray } from "drizzle-orm";
-import { computeReadingFlow, type ReadingValues } from "@/lib/terminals/reading";
+import { computeReadingFlow, readingColumns, type ReadingValues } from "@/lib/terminals/reading";
 import * as s from "../schema";
 import type { Tx } from "./index";
 
@@ -86,18 +86,7 @@ export async function seedTerminalReadings(tx: Tx, { projectId, technicianId }: 
     rows.push({
       terminalId: terminal.id,
       setId: set.id,
-      phase: values.phase,
-      method: values.method,
-      setpoint: values.setpoint,
-      hoodFlowM3S: values.hoodFlowM3S,
-      hoodCorrectionFactor: values.hoodCorrectionFactor,
-      hoodDensityCorrected: values.hoodDensityCorrected,
-      hoodBackPressureCompensated: values.hoodBackPressureCompensated,
-      dryBulbC: values.dryBulbC,
-      relativeHumidityPct: values.relativeHumidityPct,
-      densityKgM3: flow.densityKgM3,
-      flowM3S: flow.flowM3S,
-      standardFlowM3S: flow.standardFlowM3S,
+      ...readingColumns(values, flow),
       conditionsId: conditions.get(systemId) ?? null,
       instrumentId: hood.id,
       airInstrumentId: air?.id ?? null,

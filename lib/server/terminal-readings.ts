@@ -10,7 +10,7 @@ import { EngineInputError } from "@/lib/airflow/errors";
 import { compareConditions, BOX_LABELS } from "@/lib/airflow/conditions";
 import { instrumentName, KIND_INFO } from "@/lib/instruments/kinds";
 import { calibrationProblems } from "@/lib/instruments/usability";
-import { computeReadingFlow, ReadingInputError, readingValuesFromBody, verdictWords } from "@/lib/terminals/reading";
+import { computeReadingFlow, ReadingInputError, readingColumns, readingValuesFromBody, verdictWords } from "@/lib/terminals/reading";
 import { SETPOINT_LABELS, setpointsFor } from "@/lib/terminals/setpoints";
 import { isTerminalUnit } from "@/lib/validation/design";
 import { formatQuantity, unitSystemFor } from "@/lib/units";
@@ -153,27 +153,9 @@ export async function recordReadingOfTerminal({ user, project, place, body }: { 
 
   const stored: NewTerminalReading = {
     ...(body.id ? { id: body.id } : {}),
-    phase: values.phase,
-    method: values.method,
-    setpoint: values.setpoint,
-    hoodFlowM3S: values.hoodFlowM3S,
-    hoodCorrectionFactor: values.hoodCorrectionFactor,
-    hoodDensityCorrected: values.hoodDensityCorrected,
-    hoodBackPressureCompensated: values.hoodBackPressureCompensated,
-    velocitiesMS: values.velocitiesMS ? [...values.velocitiesMS] : null,
-    velocityBasis: values.velocityBasis,
-    effectiveAreaM2: values.effectiveAreaM2,
+    ...readingColumns(values, flow),
     traverseId: body.method === "traverse" ? body.traverseId! : null,
     traverseVersion: traverseFlow?.version ?? null,
-    dryBulbC: values.dryBulbC,
-    relativeHumidityPct: values.relativeHumidityPct,
-    barometricPa: values.barometricPa,
-    densityKgM3: flow.densityKgM3,
-    flowM3S: flow.flowM3S,
-    standardFlowM3S: flow.standardFlowM3S,
-    controllerFlowM3S: values.controllerFlowM3S,
-    controllerFlowFactor: values.controllerFlowFactor,
-    damperMarked: values.damperMarked,
     conditionsId,
     instrumentId: instrument?.id ?? null,
     airInstrumentId: airInstrument?.id ?? null,

@@ -129,6 +129,31 @@ export interface ComputedFlow {
   warnings: string[];
 }
 
+/** A reading's stored columns: what was read and the airflow worked out from it (the server and the demo store it alike). */
+export function readingColumns(values: ReadingValues, flow: Pick<ComputedFlow, "densityKgM3" | "flowM3S" | "standardFlowM3S">) {
+  return {
+    phase: values.phase,
+    method: values.method,
+    setpoint: values.setpoint,
+    hoodFlowM3S: values.hoodFlowM3S,
+    hoodCorrectionFactor: values.hoodCorrectionFactor,
+    hoodDensityCorrected: values.hoodDensityCorrected,
+    hoodBackPressureCompensated: values.hoodBackPressureCompensated,
+    velocitiesMS: values.velocitiesMS ? [...values.velocitiesMS] : null,
+    velocityBasis: values.velocityBasis,
+    effectiveAreaM2: values.effectiveAreaM2,
+    dryBulbC: values.dryBulbC,
+    relativeHumidityPct: values.relativeHumidityPct,
+    barometricPa: values.barometricPa,
+    densityKgM3: flow.densityKgM3,
+    flowM3S: flow.flowM3S,
+    standardFlowM3S: flow.standardFlowM3S,
+    controllerFlowM3S: values.controllerFlowM3S,
+    controllerFlowFactor: values.controllerFlowFactor,
+    damperMarked: values.damperMarked,
+  };
+}
+
 /** Reading a hood or velocity × area needs the dry-bulb at the outlet, to know the air's density. */
 export class ReadingInputError extends Error {
   constructor(
