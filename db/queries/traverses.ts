@@ -149,7 +149,6 @@ export const EDITABLE_STATUSES: readonly Traverse["status"][] = ["draft", "retur
  * time. One transaction: all of it or nothing. Returns "stale" without changing anything when someone
  * else saved first or the traverse was submitted meanwhile.
  */
-
 export async function saveTraverseReadings({
   traverseId,
   version,

@@ -384,8 +384,7 @@ export async function createTraverse(user: { id: string }, project: Project, bod
   return ok(201, { traverse: resource });
 }
 
-/** The traverse, or the refusal when it does not exist here or may no longer change. */
-/** The traverse if its readings may change, or the answer why not. `read` is how it is looked up. */
+/** The traverse, or the refusal when it does not exist here or may no longer change. `read` is how it is looked up. */
 async function editable<T extends TraverseToEdit>(
   project: Project,
   traverseId: string,
