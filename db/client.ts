@@ -116,8 +116,9 @@ export async function getDb(): Promise<Database> {
 }
 
 /**
- * `load()`'s answer, remembered under `key` until a table it read is written (embedded database;
- * with PostgreSQL it always loads). The answer is frozen: callers must not change it.
+ * `load()`'s answer, remembered under `key` until something it read is written (embedded database;
+ * see db/read-cache.ts for what counts; with PostgreSQL it always loads). The answer is frozen:
+ * callers must not change it.
  */
 export async function cachedRead<T>(key: string, load: () => Promise<T>): Promise<T> {
   const handle = await getDatabaseHandle();
