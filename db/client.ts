@@ -120,10 +120,19 @@ export async function getDb(): Promise<Database> {
  * see db/read-cache.ts for what counts; with PostgreSQL it always loads). The answer is frozen:
  * callers must not change it.
  */
-export async function cachedRead<T>(key: string, load: () => Promise<T>): Promise<T> {
+export async function cachedRead<T>(key: string, load: () => Promise<T>): Promise<Frozen<T>> {
   const handle = await getDatabaseHandle();
-  return handle.readCache ? handle.readCache.read(key, load) : load();
+  return (handle.readCache ? handle.readCache.read(key, load) : load()) as Promise<Frozen<T>>;
 }
+
+/** A remembered answer's type: read-only all the way down (dates and bytes as they are), as it is frozen. */
+export type Frozen<T> = T extends Date | Uint8Array
+  ? T
+  : T extends readonly (infer U)[]
+    ? readonly Frozen<U>[]
+    : T extends object
+      ? { readonly [K in keyof T]: Frozen<T[K]> }
+      : T;
 
 /** Closes the process-wide database if it was opened (clean shutdown). */
 export async function closeProcessDatabase(): Promise<void> {

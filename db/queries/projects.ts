@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
-import { cachedRead, getDb } from "../client";
+import { cachedRead, getDb, type Frozen } from "../client";
 import { airSystems, ductSections, projectMembers, projects, traverses, users, type MemberRole, type Project, type TraverseStatus } from "../schema";
 import { getUserById, sessionColumns, type SessionUser } from "./users";
 
@@ -26,7 +26,7 @@ export async function getProjectAccess({ userId, projectId }: { userId: string; 
  * every project API route. Null when the user does not exist; `access` null when the project does
  * not exist (or the id is not a UUID).
  */
-export async function getUserWithProjectAccess({ userId, projectId }: { userId: string; projectId: string }): Promise<{ user: SessionUser; access: ProjectAccess | null } | null> {
+export async function getUserWithProjectAccess({ userId, projectId }: { userId: string; projectId: string }): Promise<Frozen<{ user: SessionUser; access: ProjectAccess | null }> | null> {
   if (!isUuid(projectId)) {
     const user = await getUserById({ id: userId });
     return user ? { user, access: null } : null;
@@ -50,7 +50,7 @@ export async function getUserWithProjectAccess({ userId, projectId }: { userId: 
 }
 
 /** The projects a user is a member of, with the role: one indexed lookup (GET /api/auth/me). */
-export async function listMembershipsForUser({ userId }: { userId: string }): Promise<{ projectId: string; role: MemberRole }[]> {
+export async function listMembershipsForUser({ userId }: { userId: string }): Promise<readonly { readonly projectId: string; readonly role: MemberRole }[]> {
   return cachedRead(`memberships:${userId}`, async () => {
     const db = await getDb();
     return db
@@ -95,7 +95,7 @@ function sectionsWhoseLatestTraverseIs(status: TraverseStatus) {
  * The projects a user belongs to with their role in each; site administrators see every project
  * (role null where they are not a member).
  */
-export async function listProjectsForUser({ userId, isAdmin }: { userId: string; isAdmin: boolean }): Promise<ProjectSummary[]> {
+export async function listProjectsForUser({ userId, isAdmin }: { userId: string; isAdmin: boolean }): Promise<Frozen<ProjectSummary[]>> {
   return cachedRead(`projects:${userId}:${isAdmin}`, () => loadProjectsForUser(userId, isAdmin));
 }
 

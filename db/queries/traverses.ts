@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, getTableColumns, inArray, sql } from "drizzle-orm";
-import { cachedRead, getDb } from "../client";
+import { cachedRead, getDb, type Frozen } from "../client";
 import { airSystems, ductSections, readings, traverses, users, type AirSystem, type DuctSection, type Reading, type Traverse } from "../schema";
 
 export interface TraverseInProject {
@@ -50,7 +50,7 @@ export async function getTraverseInProject(q: { projectId: string; traverseId: s
  * guarded UPDATE, so a tablet's stream of saves does not read the traverse, section and system again
  * each time.
  */
-export async function getTraverseToEdit(q: { projectId: string; traverseId: string }): Promise<TraverseToEdit | null> {
+export async function getTraverseToEdit(q: { projectId: string; traverseId: string }): Promise<Frozen<TraverseToEdit> | null> {
   return cachedRead(`traverse-to-edit:${q.projectId}:${q.traverseId}`, () => traverseWithPlace(SETTINGS_COLUMNS, q));
 }
 

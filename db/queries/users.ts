@@ -1,6 +1,6 @@
 import "server-only";
 import { eq, sql } from "drizzle-orm";
-import { cachedRead, getDb } from "../client";
+import { cachedRead, getDb, type Frozen } from "../client";
 import { users } from "../schema";
 
 export interface SessionUser {
@@ -24,7 +24,7 @@ export const sessionColumns = {
 };
 
 /** The session's user: asked on every request, so remembered until the users table is written. */
-export async function getUserById({ id }: { id: string }): Promise<SessionUser | null> {
+export async function getUserById({ id }: { id: string }): Promise<Frozen<SessionUser> | null> {
   return cachedRead(`user:${id}`, async () => {
     const db = await getDb();
     const [row] = await db.select(sessionColumns).from(users).where(eq(users.id, id));
