@@ -402,15 +402,16 @@ async function editable<T extends TraverseToEdit>(
   return { found };
 }
 
-async function stale(project: Project, traverseId: string): Promise<Outcome> {
-  const current = await reload(project, traverseId);
+/** 409 with the traverse as it stands now; `found` when the caller has just read it. */
+async function stale(project: Project, traverseId: string, found?: TraverseInProject): Promise<Outcome> {
+  const current = found ? await traverseResource(found, project) : await reload(project, traverseId);
   return fail(409, `Someone saved this traverse first (it is now at version ${current?.version ?? "?"}); nothing was changed. Compare both versions and choose which to keep.`, undefined, { traverse: current });
 }
 
 /** A guarded save changed nothing: the traverse was submitted meanwhile (409 locked), or saved by someone else first. */
 async function notSaved(project: Project, traverseId: string): Promise<Outcome> {
   const again = await editable(project, traverseId, getTraverseInProject);
-  return "outcome" in again ? again.outcome : stale(project, traverseId);
+  return "outcome" in again ? again.outcome : stale(project, traverseId, again.found);
 }
 
 /** Column changes shared by PUT readings and PATCH: air, instruments, conditions. */
@@ -460,7 +461,7 @@ export async function saveReadings(user: { id: string }, project: Project, trave
   if (Object.keys(fields).length > 0) {
     // A stale version is answered before anything else is judged: the device needs the current state.
     const current = await getTraverseInProject({ projectId: project.id, traverseId });
-    if (current && current.traverse.version !== body.version) return stale(project, traverseId);
+    if (current && current.traverse.version !== body.version) return stale(project, traverseId, current);
     return fail(400, summarize(fields, "readings save"), fields);
   }
   const saved = await saveTraverseReadings({

@@ -125,14 +125,18 @@ async function main() {
       console.log(`| ${r.label} | ${r.requests} | ${r.rps.toFixed(0)} | ${round(r.p50)} | ${round(r.p95)} | ${round(r.p99)} | ${round(r.max)} | ${r.errors} | ${r.non2xx} | ${r.timeouts} |`);
     }
     // CPU per request does not depend on what else the machine is doing; latency does.
-    console.log(`\nServer CPU: ${cpuUsed.toFixed(1)} s for ${total} requests = ${((cpuUsed * 1000) / total).toFixed(2)} ms per request.`);
+    console.log(
+      Number.isFinite(cpuUsed)
+        ? `\nServer CPU: ${cpuUsed.toFixed(1)} s for ${total} requests = ${((cpuUsed * 1000) / total).toFixed(2)} ms per request.`
+        : `\nServer CPU: not measured (a server this run did not start).`,
+    );
     console.log(`Load average (1 min) before/after: ${loadBefore.toFixed(1)} / ${os.loadavg()[0]!.toFixed(1)} on ${os.cpus().length} cores.`);
     console.log(`\n${new Date().toISOString().slice(0, 10)} · ${os.cpus().length} × ${os.cpus()[0]?.model.trim()} · ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB · Node ${process.version} · ${databaseUrl ? "PostgreSQL" : "embedded PGlite"}`);
     const failed = results.reduce((n, r) => n + r.errors + r.non2xx + r.timeouts, 0);
     const reads95 = results[0]!.p95;
     console.log(`Target: zero errors (${failed === 0 ? "met" : `${failed} failed`}), read p95 under 100 ms (${reads95 < 100 ? "met" : `not met: ${reads95} ms`}).`);
     if (jsonOut) {
-      const summary = { date: new Date().toISOString(), database: databaseUrl ? "postgresql" : "pglite", durationS: duration, connections, writers, writeMix, cpuMsPerRequest: (cpuUsed * 1000) / total, loadAverage: os.loadavg()[0], results };
+      const summary = { date: new Date().toISOString(), database: databaseUrl ? "postgresql" : "pglite", durationS: duration, connections, writers, writeMix, cpuMsPerRequest: Number.isFinite(cpuUsed) ? (cpuUsed * 1000) / total : null, loadAverage: os.loadavg()[0], results };
       fs.writeFileSync(jsonOut, JSON.stringify(summary, null, 2));
     }
     await stop();
